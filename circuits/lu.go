@@ -1,0 +1,117 @@
+package circuits
+
+import (
+	"errors"
+	"math/cmplx"
+)
+
+// ErrSingular is returned when the network matrix has no usable pivot: a
+// part of the circuit floats or a loop of ideal parts fixes no current.
+var ErrSingular = errors.New("network matrix is singular (a floating section or an ideal loop)")
+
+// LU is a dense complex LU factorisation with partial pivoting, kept so that
+// one factorisation serves any number of right-hand sides. gonum has no
+// complex LU, and the matrices here are small (tens of unknowns), so a plain
+// row-major Doolittle elimination is the fastest thing that works.
+type LU struct {
+	n   int
+	a   []complex128 // L below the diagonal (unit diagonal implied), U on and above
+	piv []int
+}
+
+// NewLU allocates room for an n×n factorisation.
+func NewLU(n int) *LU {
+	return &LU{n: n, a: make([]complex128, n*n), piv: make([]int, n)}
+}
+
+// Factor copies m (row-major n×n) and factorises it in place.
+func (f *LU) Factor(m []complex128) error {
+	n := f.n
+	copy(f.a, m)
+	a := f.a
+	// scale for the singularity test: largest magnitude in the matrix
+	var scale float64
+	for _, v := range a {
+		if x := cmplx.Abs(v); x > scale {
+			scale = x
+		}
+	}
+	if scale == 0 {
+		return ErrSingular
+	}
+	tiny := scale * 1e-15
+	for k := 0; k < n; k++ {
+		p := k
+		best := abs1(a[k*n+k])
+		for i := k + 1; i < n; i++ {
+			if v := abs1(a[i*n+k]); v > best {
+				best, p = v, i
+			}
+		}
+		f.piv[k] = p
+		if best <= tiny {
+			return ErrSingular
+		}
+		if p != k {
+			rk, rp := a[k*n:k*n+n], a[p*n:p*n+n]
+			for j := range rk {
+				rk[j], rp[j] = rp[j], rk[j]
+			}
+		}
+		inv := 1 / a[k*n+k]
+		rowk := a[k*n : k*n+n]
+		for i := k + 1; i < n; i++ {
+			ri := a[i*n : i*n+n]
+			if ri[k] == 0 {
+				continue
+			}
+			l := ri[k] * inv
+			ri[k] = l
+			for j := k + 1; j < n; j++ {
+				ri[j] -= l * rowk[j]
+			}
+		}
+	}
+	return nil
+}
+
+// abs1 is |re|+|im|: cheaper than a modulus and good enough to pick pivots.
+func abs1(z complex128) float64 {
+	r, i := real(z), imag(z)
+	if r < 0 {
+		r = -r
+	}
+	if i < 0 {
+		i = -i
+	}
+	return r + i
+}
+
+// Solve overwrites b with the solution of A·x = b. It allocates nothing.
+func (f *LU) Solve(b []complex128) {
+	n, a := f.n, f.a
+	for k := 0; k < n; k++ {
+		if p := f.piv[k]; p != k {
+			b[k], b[p] = b[p], b[k]
+		}
+	}
+	for i := 1; i < n; i++ {
+		s := b[i]
+		ri := a[i*n : i*n+i]
+		for j, l := range ri {
+			s -= l * b[j]
+		}
+		b[i] = s
+	}
+	for i := n - 1; i >= 0; i-- {
+		s := b[i]
+		ri := a[i*n : i*n+n]
+		for j := i + 1; j < n; j++ {
+			s -= ri[j] * b[j]
+		}
+		b[i] = s / ri[i]
+	}
+}
+
+// Size is the number of unknowns.
+func (f *LU) Size() int { return f.n }

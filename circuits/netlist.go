@@ -1,0 +1,753 @@
+package circuits
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+)
+
+// Ground is the name of the reference node.
+const Ground = "gnd"
+
+// Pos is a place in a netlist file; Col counts characters from 1.
+type Pos struct {
+	File string
+	Line int
+	Col  int
+}
+
+func (p Pos) String() string { return fmt.Sprintf("%s:%d:%d", p.File, p.Line, p.Col) }
+
+// Error is one input error: where, what is wrong, what would be right.
+type Error struct {
+	Pos  Pos
+	Msg  string
+	Want string
+}
+
+func (e *Error) Error() string {
+	if e.Want == "" {
+		return e.Pos.String() + ": " + e.Msg
+	}
+	return e.Pos.String() + ": " + e.Msg + " (" + e.Want + ")"
+}
+
+// ErrorList holds every error of a file, in file order.
+type ErrorList []*Error
+
+func (l ErrorList) Error() string {
+	s := make([]string, len(l))
+	for i, e := range l {
+		s[i] = e.Error()
+	}
+	return strings.Join(s, "\n")
+}
+
+// Sort puts errors in file, line, column order.
+func (l ErrorList) Sort() {
+	sort.SliceStable(l, func(i, j int) bool {
+		a, b := l[i].Pos, l[j].Pos
+		if a.File != b.File {
+			return a.File < b.File
+		}
+		if a.Line != b.Line {
+			return a.Line < b.Line
+		}
+		return a.Col < b.Col
+	})
+}
+
+// Point is one value at a frequency; F is 0 for a constant.
+type Point struct {
+	V, F float64
+}
+
+// Attr is one key=value attribute as written and as read.
+type Attr struct {
+	Key    string
+	Raw    string
+	Pos    Pos // of the key
+	ValPos Pos // of the value
+	Num    float64
+	Points []Point
+	Zs     []complex128
+	Words  []string
+	Nums   []float64
+	Lo, Hi float64
+}
+
+// Attrs are a statement's attributes by key.
+type Attrs map[string]*Attr
+
+// Num returns the numeric value of key, if present.
+func (a Attrs) Num(key string) (float64, bool) {
+	if x, ok := a[key]; ok {
+		return x.Num, true
+	}
+	return 0, false
+}
+
+// Word returns the first word of key, if present.
+func (a Attrs) Word(key string) (string, bool) {
+	if x, ok := a[key]; ok && len(x.Words) > 0 {
+		return x.Words[0], true
+	}
+	return "", false
+}
+
+// Kind names a component kind as written in the netlist.
+type Kind string
+
+// The component kinds.
+const (
+	Capacitor Kind = "capacitor"
+	Inductor  Kind = "inductor"
+	Resistor  Kind = "resistor"
+)
+
+// Component is a two-terminal part.
+type Component struct {
+	Name  string
+	Kind  Kind
+	A, B  string // nodes
+	Value float64
+	Pos   Pos
+	Attrs Attrs
+}
+
+// Port is the transmitter (in) or antenna (out) connection.
+type Port struct {
+	Side string // "in" or "out"
+	Node string
+	Z    complex128
+	Pos  Pos
+}
+
+// Core is a magnetic core; its meaning is read by the ratings layer.
+type Core struct {
+	Name  string
+	Pos   Pos
+	Attrs Attrs
+}
+
+// Coupling is mutual inductance between two inductors.
+type Coupling struct {
+	Name   string
+	L1, L2 string
+	K      float64
+	Pos    Pos
+	LPos   [2]Pos // where each inductor name is written
+}
+
+// Material is a user-defined core material statement.
+type Material struct {
+	Name  string
+	Pos   Pos
+	Attrs Attrs
+}
+
+// Directive is one `audit` statement: conditions the file asks for.
+type Directive struct {
+	Pos   Pos
+	Attrs Attrs
+	Order []string // keys in the order written
+}
+
+// Netlist is a parsed file.
+type Netlist struct {
+	File       string
+	Source     []byte
+	Title      string
+	In, Out    *Port
+	Components []*Component
+	Cores      []*Core
+	Couplings  []*Coupling
+	Materials  []*Material
+	Audit      []*Directive
+	Nodes      []string // non-ground nodes in order of first use
+}
+
+// SHA256 is the hex digest of the file as read.
+func (n *Netlist) SHA256() string {
+	h := sha256.Sum256(n.Source)
+	return hex.EncodeToString(h[:])
+}
+
+// Component returns the component called name.
+func (n *Netlist) Component(name string) *Component {
+	for _, c := range n.Components {
+		if c.Name == name {
+			return c
+		}
+	}
+	return nil
+}
+
+// Core returns the core called name.
+func (n *Netlist) Core(name string) *Core {
+	for _, c := range n.Cores {
+		if c.Name == name {
+			return c
+		}
+	}
+	return nil
+}
+
+type token struct {
+	text string
+	col  int
+}
+
+// tokenize splits a line (comment removed) into fields with columns.
+func tokenize(line string) []token {
+	var toks []token
+	col := 1
+	start, startCol := -1, 0
+	for i, r := range line {
+		if unicode.IsSpace(r) {
+			if start >= 0 {
+				toks = append(toks, token{line[start:i], startCol})
+				start = -1
+			}
+		} else if start < 0 {
+			start, startCol = i, col
+		}
+		col++
+	}
+	if start >= 0 {
+		toks = append(toks, token{line[start:], startCol})
+	}
+	return toks
+}
+
+func stripComment(line string) string {
+	if i := strings.IndexByte(line, '#'); i >= 0 {
+		return line[:i]
+	}
+	return line
+}
+
+var namePattern = "a letter, then letters, digits, _ or -"
+
+func validName(s string) bool {
+	if s == "" {
+		return false
+	}
+	for i, r := range s {
+		if i == 0 && !unicode.IsLetter(r) && !unicode.IsDigit(r) {
+			return false
+		}
+		if !unicode.IsLetter(r) && !unicode.IsDigit(r) && r != '_' && r != '-' && r != '.' {
+			return false
+		}
+	}
+	return true
+}
+
+type parser struct {
+	file string
+	nl   *Netlist
+	errs ErrorList
+	// first statement of each name, for duplicate messages
+	names     map[string]Pos
+	coreNames map[string]Pos
+	matNames  map[string]Pos
+	nodeSeen  map[string]bool
+	nodePos   map[string]Pos
+}
+
+func (p *parser) errorf(pos Pos, want, format string, args ...any) {
+	p.errs = append(p.errs, &Error{Pos: pos, Msg: fmt.Sprintf(format, args...), Want: want})
+}
+
+// Parse reads a netlist. It returns every error found, as an ErrorList,
+// and never panics on any input.
+func Parse(file string, src []byte) (*Netlist, error) {
+	p := &parser{
+		file: file,
+		nl:   &Netlist{File: file, Source: src},
+		names: map[string]Pos{}, coreNames: map[string]Pos{}, matNames: map[string]Pos{},
+		nodeSeen: map[string]bool{}, nodePos: map[string]Pos{},
+	}
+	if !utf8.Valid(src) {
+		p.errorf(Pos{file, 1, 1}, "a UTF-8 text file", "file is not valid UTF-8")
+		return nil, p.errs
+	}
+	lines := strings.Split(strings.ReplaceAll(string(src), "\r\n", "\n"), "\n")
+	for i, raw := range lines {
+		p.line(i+1, raw)
+	}
+	p.check()
+	if len(p.errs) > 0 {
+		p.errs.Sort()
+		return p.nl, p.errs
+	}
+	return p.nl, nil
+}
+
+func (p *parser) pos(line, col int) Pos { return Pos{p.file, line, col} }
+
+func (p *parser) line(ln int, raw string) {
+	body := stripComment(raw)
+	toks := tokenize(body)
+	if len(toks) == 0 {
+		return
+	}
+	kw := toks[0]
+	spec, ok := Keywords[kw.text]
+	if !ok {
+		p.errorf(p.pos(ln, kw.col), "one of "+keywordList(), "unknown keyword %q", kw.text)
+		return
+	}
+	if kw.text == "title" {
+		if p.nl.Title != "" {
+			p.errorf(p.pos(ln, kw.col), "one title per file", "second title")
+		}
+		p.nl.Title = strings.TrimSpace(body[strings.Index(body, "title")+len("title"):])
+		return
+	}
+	// positional fields come first, then key=value attributes
+	var fields []token
+	rest := toks[1:]
+	for len(rest) > 0 && !strings.Contains(rest[0].text, "=") {
+		fields = append(fields, rest[0])
+		rest = rest[1:]
+	}
+	if len(fields) != len(spec.Fields) {
+		at := kw.col
+		if len(fields) > len(spec.Fields) {
+			at = fields[len(spec.Fields)].col
+		} else if len(fields) > 0 {
+			at = fields[len(fields)-1].col
+		}
+		p.errorf(p.pos(ln, at), kw.text+" "+strings.Join(spec.Fields, " ")+" key=value…",
+			"%s takes %d fields before its attributes, found %d", kw.text, len(spec.Fields), len(fields))
+		return
+	}
+	attrs, order := p.attrs(ln, kw.text, spec, rest)
+	for _, req := range spec.Required {
+		if _, ok := attrs[req]; !ok {
+			p.errorf(p.pos(ln, kw.col), spec.Attrs[req].Help, "%s needs %s=", kw.text, req)
+		}
+	}
+	switch kw.text {
+	case "port":
+		p.port(ln, fields, attrs)
+	case "core":
+		if p.declare(p.coreNames, "core", fields[0], ln) {
+			p.nl.Cores = append(p.nl.Cores, &Core{Name: fields[0].text, Pos: p.pos(ln, fields[0].col), Attrs: attrs})
+		}
+	case "material":
+		if p.declare(p.matNames, "material", fields[0], ln) {
+			p.nl.Materials = append(p.nl.Materials, &Material{Name: fields[0].text, Pos: p.pos(ln, fields[0].col), Attrs: attrs})
+		}
+	case "coupling":
+		p.coupling(ln, fields, attrs)
+	case "audit":
+		p.nl.Audit = append(p.nl.Audit, &Directive{Pos: p.pos(ln, kw.col), Attrs: attrs, Order: order})
+	default:
+		p.component(ln, Kind(kw.text), fields, attrs)
+	}
+}
+
+func keywordList() string {
+	ks := make([]string, 0, len(Keywords))
+	for k := range Keywords {
+		ks = append(ks, k)
+	}
+	sort.Strings(ks)
+	return strings.Join(ks, ", ")
+}
+
+func (p *parser) declare(names map[string]Pos, what string, t token, ln int) bool {
+	if !validName(t.text) {
+		p.errorf(p.pos(ln, t.col), namePattern, "bad %s name %q", what, t.text)
+		return false
+	}
+	if first, dup := names[t.text]; dup {
+		p.errorf(p.pos(ln, t.col), "a name not used before", "%s %s is already defined at line %d", what, t.text, first.Line)
+		return false
+	}
+	names[t.text] = p.pos(ln, t.col)
+	return true
+}
+
+func (p *parser) useNode(t token, ln int) (string, bool) {
+	if !validName(t.text) {
+		p.errorf(p.pos(ln, t.col), "a node name: "+namePattern, "bad node name %q", t.text)
+		return "", false
+	}
+	if t.text != Ground && !p.nodeSeen[t.text] {
+		p.nodeSeen[t.text] = true
+		p.nodePos[t.text] = p.pos(ln, t.col)
+		p.nl.Nodes = append(p.nl.Nodes, t.text)
+	}
+	return t.text, true
+}
+
+func (p *parser) port(ln int, f []token, attrs Attrs) {
+	side := f[0].text
+	if side != "in" && side != "out" {
+		p.errorf(p.pos(ln, f[0].col), "in (transmitter side) or out (antenna side)", "unknown port side %q", side)
+		return
+	}
+	pt := &Port{Side: side, Node: f[1].text, Pos: p.pos(ln, f[0].col)}
+	if f[1].text == Ground {
+		p.errorf(p.pos(ln, f[1].col), "a node other than gnd", "port %s on the ground node", side)
+		return
+	}
+	if !validName(f[1].text) {
+		p.errorf(p.pos(ln, f[1].col), "a node name: "+namePattern, "bad node name %q", f[1].text)
+		return
+	}
+	if a, ok := attrs["z"]; ok {
+		if len(a.Zs) != 1 {
+			p.errorf(a.ValPos, "one impedance", "port z takes one impedance")
+			return
+		}
+		pt.Z = a.Zs[0]
+		if real(pt.Z) <= 0 {
+			p.errorf(a.ValPos, "a resistive part above 0 Ω, e.g. 50 or 12.5-j180", "port impedance %s has no positive resistance", a.Raw)
+			return
+		}
+	} else {
+		return
+	}
+	if side == "in" {
+		if p.nl.In != nil {
+			p.errorf(pt.Pos, "one port in", "port in is already defined at line %d", p.nl.In.Pos.Line)
+			return
+		}
+		p.nl.In = pt
+	} else {
+		if p.nl.Out != nil {
+			p.errorf(pt.Pos, "one port out", "port out is already defined at line %d", p.nl.Out.Pos.Line)
+			return
+		}
+		p.nl.Out = pt
+	}
+}
+
+func (p *parser) coupling(ln int, f []token, attrs Attrs) {
+	if !p.declare(p.names, "part", f[0], ln) {
+		return
+	}
+	c := &Coupling{Name: f[0].text, L1: f[1].text, L2: f[2].text, Pos: p.pos(ln, f[0].col),
+		LPos: [2]Pos{p.pos(ln, f[1].col), p.pos(ln, f[2].col)}}
+	if c.L1 == c.L2 {
+		p.errorf(p.pos(ln, f[2].col), "two different inductors", "coupling %s couples %s to itself", c.Name, c.L1)
+	}
+	if a, ok := attrs["k"]; ok {
+		c.K = a.Num
+		if !(a.Num > 0 && a.Num < 1) {
+			p.errorf(a.ValPos, "0 < k < 1", "coupling coefficient k=%s is out of range", a.Raw)
+		}
+	}
+	p.nl.Couplings = append(p.nl.Couplings, c)
+	// inductor names are checked once the whole file is read
+}
+
+func (p *parser) component(ln int, kind Kind, f []token, attrs Attrs) {
+	okName := p.declare(p.names, "part", f[0], ln)
+	a, okA := p.useNode(f[1], ln)
+	b, okB := p.useNode(f[2], ln)
+	if okA && okB && a == b {
+		p.errorf(p.pos(ln, f[2].col), "two different nodes", "%s %s is connected to itself (both ends on %s)", kind, f[0].text, a)
+	}
+	units := map[Kind][]string{Capacitor: {"F"}, Inductor: {"H"}, Resistor: {"ohm"}}[kind]
+	v, err := ParseValue(f[3].text, units...)
+	valueOK := true
+	if err != nil {
+		p.errorf(p.pos(ln, f[3].col), "a value such as "+exampleValue(kind), "bad %s value: %v", kind, err)
+		valueOK = false
+	} else if v <= 0 {
+		p.errorf(p.pos(ln, f[3].col), "a value above zero, such as "+exampleValue(kind), "%s value %s is not positive", kind, f[3].text)
+		valueOK = false
+	}
+	n := 0
+	for _, k := range []string{"q", "esr", "df"} {
+		if _, ok := attrs[k]; ok {
+			n++
+		}
+	}
+	if n > 1 {
+		p.errorf(p.pos(ln, f[0].col), "one of q=, esr=, df=", "%s %s gives more than one loss figure", kind, f[0].text)
+	}
+	if okName && valueOK {
+		p.nl.Components = append(p.nl.Components, &Component{
+			Name: f[0].text, Kind: kind, A: a, B: b, Value: v, Pos: p.pos(ln, f[0].col), Attrs: attrs,
+		})
+	}
+}
+
+func exampleValue(k Kind) string {
+	switch k {
+	case Capacitor:
+		return "300p"
+	case Inductor:
+		return "0.91u"
+	}
+	return "2.2k"
+}
+
+// attrs reads key=value tokens against the keyword's table.
+func (p *parser) attrs(ln int, kw string, spec Keyword, toks []token) (Attrs, []string) {
+	out := Attrs{}
+	var order []string
+	for _, t := range toks {
+		eq := strings.IndexByte(t.text, '=')
+		if eq < 0 {
+			p.errorf(p.pos(ln, t.col), "key=value", "%q after the attributes began", t.text)
+			continue
+		}
+		key, val := t.text[:eq], t.text[eq+1:]
+		kpos := p.pos(ln, t.col)
+		vpos := p.pos(ln, t.col+utf8.RuneCountInString(t.text[:eq+1]))
+		as, ok := spec.Attrs[key]
+		if !ok {
+			p.errorf(kpos, attrList(kw, spec), "unknown attribute %q for %s", key, kw)
+			continue
+		}
+		if _, dup := out[key]; dup {
+			p.errorf(kpos, "each attribute once", "attribute %s given twice", key)
+			continue
+		}
+		if val == "" {
+			p.errorf(vpos, as.Help, "attribute %s has no value", key)
+			continue
+		}
+		a := &Attr{Key: key, Raw: val, Pos: kpos, ValPos: vpos}
+		if err := readAttr(a, as); err != nil {
+			p.errorf(vpos, as.Help, "bad %s=: %v", key, err)
+			continue
+		}
+		out[key] = a
+		order = append(order, key)
+	}
+	return out, order
+}
+
+func attrList(kw string, spec Keyword) string {
+	if len(spec.Attrs) == 0 {
+		return kw + " takes no attributes"
+	}
+	ks := make([]string, 0, len(spec.Attrs))
+	for k := range spec.Attrs {
+		ks = append(ks, k)
+	}
+	sort.Strings(ks)
+	return kw + " takes " + strings.Join(ks, ", ")
+}
+
+func readNumber(s string, as AttrSpec) (float64, error) {
+	if as.NeedUnit {
+		_, rest := splitNumber(s)
+		if rest == "" {
+			return 0, fmt.Errorf("%q has no unit", s)
+		}
+	}
+	v, err := ParseValue(s, as.Units...)
+	if err != nil {
+		return 0, err
+	}
+	return v, nil
+}
+
+func readAttr(a *Attr, as AttrSpec) error {
+	s := a.Raw
+	switch as.Type {
+	case TNumber, TPositive:
+		v, err := readNumber(s, as)
+		if err != nil {
+			return err
+		}
+		if as.Type == TPositive && v <= 0 {
+			return fmt.Errorf("%s is not above zero", s)
+		}
+		a.Num = v
+	case TPercent:
+		if !strings.HasSuffix(s, "%") {
+			return fmt.Errorf("%q needs a %% sign", s)
+		}
+		v, err := ParseValue(s, "%")
+		if err != nil {
+			return err
+		}
+		if v < 0 || v >= 1 {
+			return fmt.Errorf("%s is outside 0%%…100%%", s)
+		}
+		a.Num = v
+	case TInt:
+		n, err := strconv.Atoi(s)
+		if err != nil || n <= 0 {
+			return fmt.Errorf("%q is not a whole number above zero", s)
+		}
+		a.Num = float64(n)
+	case TPoints:
+		for _, part := range strings.Split(s, ",") {
+			pt := Point{}
+			val, freq, hasF := strings.Cut(part, "@")
+			v, err := readNumber(val, as)
+			if err != nil {
+				return err
+			}
+			if v <= 0 {
+				return fmt.Errorf("%s is not above zero", val)
+			}
+			pt.V = v
+			if hasF {
+				f, err := ParseValue(freq, "Hz")
+				if err != nil {
+					return err
+				}
+				if f <= 0 {
+					return fmt.Errorf("frequency %s is not above zero", freq)
+				}
+				pt.F = f
+			}
+			a.Points = append(a.Points, pt)
+		}
+		if len(a.Points) > 1 {
+			for i, pt := range a.Points {
+				if pt.F == 0 {
+					return fmt.Errorf("with several points each needs @frequency")
+				}
+				if i > 0 && pt.F <= a.Points[i-1].F {
+					return fmt.Errorf("frequencies must rise from point to point")
+				}
+			}
+		}
+		a.Num = a.Points[0].V
+	case TComplex:
+		for _, part := range splitComplexList(s) {
+			z, err := ParseComplex(part)
+			if err != nil {
+				return err
+			}
+			a.Zs = append(a.Zs, z)
+		}
+		a.Num = real(a.Zs[0])
+	case TWord, TWords:
+		for _, w := range strings.Split(s, ",") {
+			if !validName(w) {
+				return fmt.Errorf("%q is not a word (%s)", w, namePattern)
+			}
+			a.Words = append(a.Words, w)
+		}
+		if as.Type == TWord && len(a.Words) != 1 {
+			return fmt.Errorf("one word expected")
+		}
+	case TNumbers:
+		for _, w := range strings.Split(s, ",") {
+			v, err := readNumber(w, as)
+			if err != nil {
+				return err
+			}
+			if v <= 0 {
+				return fmt.Errorf("%s is not above zero", w)
+			}
+			a.Nums = append(a.Nums, v)
+		}
+		a.Num = a.Nums[0]
+	case TRange:
+		lo, hi, ok := strings.Cut(s, ":")
+		if !ok {
+			return fmt.Errorf("%q is not a range lo:hi", s)
+		}
+		l, err := ParseValue(lo, "Hz")
+		if err != nil {
+			return err
+		}
+		h, err := ParseValue(hi, "Hz")
+		if err != nil {
+			return err
+		}
+		if l <= 0 || h < l {
+			return fmt.Errorf("range %s needs 0 < lo ≤ hi", s)
+		}
+		a.Lo, a.Hi = l, h
+	case TText:
+	}
+	if math.IsNaN(a.Num) || math.IsInf(a.Num, 0) {
+		return fmt.Errorf("%q is not finite", s)
+	}
+	return nil
+}
+
+// splitComplexList splits "12.5-j180,30+j40" on commas.
+func splitComplexList(s string) []string { return strings.Split(s, ",") }
+
+// check runs the whole-file rules once every statement is read.
+func (p *parser) check() {
+	nl := p.nl
+	top := p.pos(1, 1)
+	if nl.In == nil {
+		p.errorf(top, "a line such as: port in n1 z=50", "no port in (transmitter side)")
+	}
+	if nl.Out == nil {
+		p.errorf(top, "a line such as: port out n4 z=50", "no port out (antenna side)")
+	}
+	if nl.In != nil && nl.Out != nil && nl.In.Node == nl.Out.Node {
+		p.errorf(nl.Out.Pos, "separate nodes for port in and port out", "port out is on the same node as port in")
+	}
+	for _, pt := range []*Port{nl.In, nl.Out} {
+		if pt != nil && !p.nodeSeen[pt.Node] {
+			p.errorf(Pos{pt.Pos.File, pt.Pos.Line, pt.Pos.Col}, "a node that a part connects to", "port %s names unknown node %q", pt.Side, pt.Node)
+		}
+	}
+	inductors := map[string]*Component{}
+	for _, c := range nl.Components {
+		if c.Kind == Inductor {
+			inductors[c.Name] = c
+			if a, ok := c.Attrs["core"]; ok {
+				if _, known := p.coreNames[a.Words[0]]; !known {
+					p.errorf(a.ValPos, "the name of a core statement", "inductor %s uses unknown core %q", c.Name, a.Words[0])
+				}
+			}
+		}
+	}
+	for _, k := range nl.Couplings {
+		for i, ln := range []string{k.L1, k.L2} {
+			if _, ok := inductors[ln]; !ok {
+				p.errorf(k.LPos[i], "the name of an inductor", "coupling %s names unknown inductor %q", k.Name, ln)
+			}
+		}
+	}
+	if nl.In == nil || nl.Out == nil || len(p.errs) > 0 {
+		return
+	}
+	// every node must reach ground through parts or a port impedance
+	adj := map[string][]string{}
+	link := func(a, b string) {
+		adj[a] = append(adj[a], b)
+		adj[b] = append(adj[b], a)
+	}
+	for _, c := range nl.Components {
+		link(c.A, c.B)
+	}
+	link(nl.In.Node, Ground)
+	link(nl.Out.Node, Ground)
+	seen := map[string]bool{Ground: true}
+	stack := []string{Ground}
+	for len(stack) > 0 {
+		n := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		for _, m := range adj[n] {
+			if !seen[m] {
+				seen[m] = true
+				stack = append(stack, m)
+			}
+		}
+	}
+	for _, n := range nl.Nodes {
+		if !seen[n] {
+			p.errorf(p.nodePos[n], "every node joined to gnd through parts or a port", "node %s has no path to ground", n)
+		}
+	}
+}

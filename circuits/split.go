@@ -1,0 +1,146 @@
+package circuits
+
+import (
+	"math"
+	"math/cmplx"
+)
+
+// Split is the network at one frequency seen from the antenna port, with
+// the load taken away: the response to a 1 V rms EMF at the input port
+// (index 0) and the response to 1 A injected into the antenna node
+// (index 1). By superposition the state under any load Z is
+//
+//	x = x0 + α·x1,  α = −I_L,  I_L = Voc/(Zth + Z)
+//
+// so a load costs a few complex multiply-adds per part, not a new solve.
+type Split struct {
+	F        float64
+	Voc, Zth complex128 // Thevenin equivalent at the antenna port
+	V, I, L  [2][]complex128
+	R        []float64 // loss resistance per element at F
+	Node     [2][]complex128
+	Vin      [2]complex128
+	Zs       complex128
+}
+
+// NewSplit allocates a split for c.
+func NewSplit(c *Circuit) *Split {
+	n, nn := len(c.Elements), len(c.Nodes)
+	s := &Split{R: make([]float64, n)}
+	for k := 0; k < 2; k++ {
+		s.V[k] = make([]complex128, n)
+		s.I[k] = make([]complex128, n)
+		s.L[k] = make([]complex128, n)
+		s.Node[k] = make([]complex128, nn)
+	}
+	return s
+}
+
+// SplitWork holds the reusable storage for filling splits.
+type SplitWork struct {
+	fz    *Factorization
+	x     []complex128
+	parts []PartState
+}
+
+// NewSplitWork prepares storage for c.
+func NewSplitWork(c *Circuit) *SplitWork {
+	n := c.Size()
+	return &SplitWork{
+		fz:    &Factorization{C: c, lu: NewLU(n), mat: make([]complex128, n*n)},
+		x:     make([]complex128, n),
+		parts: make([]PartState, len(c.Elements)),
+	}
+}
+
+// Fill factorises the open-port network at f once and solves both
+// excitations into s.
+func (w *SplitWork) Fill(s *Split, f float64) error {
+	c := w.fz.C
+	if err := w.fz.Refactor(f); err != nil {
+		return err
+	}
+	s.F, s.Zs = f, c.Zin
+	for k := 0; k < 2; k++ {
+		x := w.x
+		for i := range x {
+			x[i] = 0
+		}
+		if k == 0 {
+			x[c.In] = 1 / c.Zin
+		} else {
+			x[c.Out] = 1
+		}
+		w.fz.Solve(x)
+		c.PartStates(x, f, w.parts)
+		for i, ps := range w.parts {
+			s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
+		}
+		copy(s.Node[k], x[:len(c.Nodes)])
+		s.Vin[k] = x[c.In]
+		if k == 0 {
+			s.Voc = x[c.Out]
+		} else {
+			s.Zth = x[c.Out]
+		}
+	}
+	for i := range c.Elements {
+		s.R[i] = c.Elements[i].LossR(f)
+	}
+	return nil
+}
+
+// Alpha is the weight of the unit-injection response for a load; for 1 V
+// of EMF. An open port gives 0.
+func (s *Split) Alpha(l Load) complex128 {
+	if l.Open {
+		return 0
+	}
+	d := s.Zth + l.Z
+	if cmplx.Abs(d) < 1e-12*(cmplx.Abs(s.Zth)+1e-300) {
+		// a lossless network resonated by a lossless load: keep it finite
+		d = complex(1e-12*cmplx.Abs(s.Zth)+1e-18, 0)
+	}
+	return -s.Voc / d
+}
+
+// Part returns the state of element i for weight α and EMF e (rms).
+func (s *Split) Part(i int, alpha, e complex128) PartState {
+	v := (s.V[0][i] + alpha*s.V[1][i]) * e
+	cur := (s.I[0][i] + alpha*s.I[1][i]) * e
+	lam := (s.L[0][i] + alpha*s.L[1][i]) * e
+	return PartState{V: v, I: cur, Lambda: lam, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
+}
+
+// InputPower is the power the source delivers into the network (load
+// included) for weight α and a 1 V EMF.
+func (s *Split) InputPower(alpha complex128) float64 {
+	vin := s.Vin[0] + alpha*s.Vin[1]
+	iin := (1 - vin) / s.Zs
+	return real(vin * conj(iin))
+}
+
+// LoadPower is the power into load l for weight α and a 1 V EMF.
+func (s *Split) LoadPower(l Load, alpha complex128) float64 {
+	il := -alpha
+	return real(l.Z) * (real(il)*real(il) + imag(il)*imag(il))
+}
+
+// MaxNodeV is the largest node voltage magnitude (rms) for weight α, EMF e.
+func (s *Split) MaxNodeV(alpha complex128, e float64) float64 {
+	var m float64
+	for i := range s.Node[0] {
+		if v := cmplx.Abs(s.Node[0][i]+alpha*s.Node[1][i]) * e; v > m {
+			m = v
+		}
+	}
+	return m
+}
+
+// LoadOnCircle is the load on the circle of the given SWR around z0 at
+// angle θ of the reflection coefficient: Z = z0·(1+Γ)/(1−Γ).
+func LoadOnCircle(z0 complex128, swr, theta float64) Load {
+	g := (swr - 1) / (swr + 1)
+	gam := complex(g*math.Cos(theta), g*math.Sin(theta))
+	return Load{Z: z0 * (1 + gam) / (1 - gam)}
+}

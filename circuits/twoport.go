@@ -1,0 +1,69 @@
+package circuits
+
+import (
+	"math"
+	"math/cmplx"
+)
+
+// SParams are the two-port scattering parameters at one frequency, with
+// power waves referred to each port's impedance (Kurokawa 1965; for real
+// port impedances these are the usual S-parameters).
+type SParams struct {
+	F                  float64
+	S11, S21, S12, S22 complex128
+	Zin                complex128 // input impedance with the output port terminated
+}
+
+// TwoPort solves the network at f with both ports terminated in their own
+// impedances: one factorisation, two excitations.
+func (c *Circuit) TwoPort(f float64) (SParams, error) {
+	load := Load{Z: c.Zout}
+	fz, err := c.Factor(f, &load)
+	if err != nil {
+		return SParams{F: f}, err
+	}
+	n := fz.N()
+	r1, r2 := math.Sqrt(real(c.Zin)), math.Sqrt(real(c.Zout))
+	z1c, z2c := conj(c.Zin), conj(c.Zout)
+	x := make([]complex128, n)
+	sp := SParams{F: f}
+
+	// drive port 1 with E = 1: a1 = 1/(2√R1)
+	x[c.In] = 1 / c.Zin
+	fz.Solve(x)
+	v1, v2 := x[c.In], x[c.Out]
+	i1 := (1 - v1) / c.Zin // into the network
+	i2 := -x[c.Size()]     // into the network at port 2
+	a1 := 1 / (2 * complex(r1, 0))
+	sp.S11 = (v1 - z1c*i1) / complex(2*r1, 0) / a1
+	sp.S21 = (v2 - z2c*i2) / complex(2*r2, 0) / a1
+	if i1 != 0 {
+		sp.Zin = v1 / i1
+	}
+
+	// drive port 2 with E = 1 in series with Z2 (the load branch row)
+	for i := range x {
+		x[i] = 0
+	}
+	x[c.Size()] = 1
+	fz.Solve(x)
+	v1, v2 = x[c.In], x[c.Out]
+	i1 = -v1 / c.Zin
+	i2 = -x[c.Size()]
+	a2 := 1 / (2 * complex(r2, 0))
+	sp.S12 = (v1 - z1c*i1) / complex(2*r1, 0) / a2
+	sp.S22 = (v2 - z2c*i2) / complex(2*r2, 0) / a2
+	return sp, nil
+}
+
+// DB returns 20·log10|z|, floored at −400 dB so that zero never becomes −Inf.
+func DB(z complex128) float64 {
+	a := cmplx.Abs(z)
+	if a < 1e-20 {
+		return -400
+	}
+	return 20 * math.Log10(a)
+}
+
+// PhaseDeg returns the angle of z in degrees.
+func PhaseDeg(z complex128) float64 { return cmplx.Phase(z) * 180 / math.Pi }

@@ -1,0 +1,254 @@
+package circuits
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+)
+
+// prefixes maps SI prefixes to their factors. "M" is mega and "m" is milli,
+// as in SI; "u" stands in for "µ" where the keyboard has none.
+var prefixes = map[string]float64{
+	"f": 1e-15, "p": 1e-12, "n": 1e-9, "u": 1e-6, "µ": 1e-6, "μ": 1e-6,
+	"m": 1e-3, "k": 1e3, "K": 1e3, "M": 1e6, "G": 1e9,
+}
+
+// units a value may carry after its prefix. Checking the unit against the
+// field is left to the caller through the want argument.
+var units = []string{"ohm", "Ohm", "Ω", "Hz", "mm2", "F", "H", "V", "A", "W", "m", "T", "%", "°C", "C"}
+
+// ParseValue reads a real number with an optional SI prefix and an optional
+// unit, e.g. "300p", "0.91uH", "2.2k", "15.5mm2", "10.1MHz", "50ohm".
+// want lists the units accepted for this field (empty: any listed unit).
+// The special unit "mm2" means square millimetres and returns m².
+func ParseValue(s string, want ...string) (float64, error) {
+	if s == "" {
+		return 0, fmt.Errorf("empty value")
+	}
+	num, rest := splitNumber(s)
+	if num == "" {
+		return 0, fmt.Errorf("%q is not a number", s)
+	}
+	v, err := strconv.ParseFloat(num, 64)
+	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
+		return 0, fmt.Errorf("%q is not a finite number", s)
+	}
+	if rest == "" {
+		return v, nil
+	}
+	// mm2 is an area: read it before the prefix rule takes "m" as milli.
+	if rest == "cm2" || rest == "cm²" {
+		if !unitAllowed("mm2", want) {
+			return 0, fmt.Errorf("unit cm2 does not fit here (%s)", wantText(want))
+		}
+		return v * 1e-4, nil
+	}
+	if rest == "mm2" || rest == "mm²" {
+		if !unitAllowed("mm2", want) {
+			return 0, fmt.Errorf("unit mm2 does not fit here (%s)", wantText(want))
+		}
+		return v * 1e-6, nil
+	}
+	// A bare unit ("50ohm", "1F") or a prefix followed by a unit or nothing.
+	for _, u := range units {
+		if rest == u {
+			if u == "m" && !unitAllowed("m", want) {
+				break // "m" alone is milli unless metres are wanted
+			}
+			if !unitAllowed(u, want) {
+				return 0, fmt.Errorf("unit %s does not fit here (%s)", u, wantText(want))
+			}
+			if u == "%" {
+				return v / 100, nil
+			}
+			return v, nil
+		}
+	}
+	r, size := utf8.DecodeRuneInString(rest)
+	_ = r
+	pre := rest[:size]
+	f, ok := prefixes[pre]
+	if !ok {
+		return 0, fmt.Errorf("%q has an unknown prefix or unit %q (SI prefixes f p n u µ m k M G, then a unit)", s, rest)
+	}
+	unit := rest[size:]
+	if unit == "" {
+		return v * f, nil
+	}
+	if unit == "m2" && pre == "m" {
+		return v * 1e-6, nil
+	}
+	for _, u := range units {
+		if unit == u && u != "%" && u != "mm2" {
+			if !unitAllowed(u, want) {
+				return 0, fmt.Errorf("unit %s does not fit here (%s)", u, wantText(want))
+			}
+			return v * f, nil
+		}
+	}
+	return 0, fmt.Errorf("%q has an unknown unit %q (expected %s)", s, unit, wantText(want))
+}
+
+func unitAllowed(u string, want []string) bool {
+	if len(want) == 0 {
+		return true
+	}
+	if u == "°C" {
+		u = "C"
+	}
+	for _, w := range want {
+		if w == u || (w == "ohm" && (u == "Ohm" || u == "Ω")) {
+			return true
+		}
+	}
+	return false
+}
+
+func wantText(want []string) string {
+	if len(want) == 0 {
+		return "a number with an optional SI prefix"
+	}
+	return "unit " + strings.Join(want, " or ")
+}
+
+// splitNumber cuts the leading decimal number (sign, digits, point, exponent)
+// from s.
+func splitNumber(s string) (num, rest string) {
+	i := 0
+	if i < len(s) && (s[i] == '+' || s[i] == '-') {
+		i++
+	}
+	digits := 0
+	for i < len(s) && (s[i] >= '0' && s[i] <= '9' || s[i] == '.') {
+		i++
+		digits++
+	}
+	if digits == 0 {
+		return "", s
+	}
+	// exponent: e or E followed by an optional sign and digits
+	if i < len(s) && (s[i] == 'e' || s[i] == 'E') {
+		j := i + 1
+		if j < len(s) && (s[j] == '+' || s[j] == '-') {
+			j++
+		}
+		k := j
+		for k < len(s) && s[k] >= '0' && s[k] <= '9' {
+			k++
+		}
+		if k > j {
+			i = k
+		}
+	}
+	return s[:i], s[i:]
+}
+
+// ParseComplex reads an impedance such as "50", "12.5-j180", "12.5+j1.2k",
+// "-j50" or "j25ohm". Prefixes apply to each part separately.
+func ParseComplex(s string) (complex128, error) {
+	t := strings.TrimSuffix(strings.TrimSuffix(strings.TrimSuffix(s, "ohm"), "Ω"), "Ohm")
+	if t == "" {
+		return 0, fmt.Errorf("empty impedance")
+	}
+	// find the j part: a '+' or '-' followed by j, or a leading j
+	jpos := -1
+	for i := 0; i < len(t); i++ {
+		if t[i] == 'j' {
+			jpos = i
+			break
+		}
+	}
+	if jpos < 0 {
+		v, err := ParseValue(t)
+		if err != nil {
+			return 0, err
+		}
+		return complex(v, 0), nil
+	}
+	sign := 1.0
+	realPart := t[:jpos]
+	if strings.HasSuffix(realPart, "-") {
+		sign = -1
+		realPart = realPart[:len(realPart)-1]
+	} else if strings.HasSuffix(realPart, "+") {
+		realPart = realPart[:len(realPart)-1]
+	}
+	var re float64
+	if realPart != "" {
+		v, err := ParseValue(realPart)
+		if err != nil {
+			return 0, err
+		}
+		re = v
+	}
+	imText := t[jpos+1:]
+	if imText == "" || imText[0] == '-' || imText[0] == '+' {
+		return 0, fmt.Errorf("%q: expected a number after j, as in 12.5-j180", s)
+	}
+	im, err := ParseValue(imText)
+	if err != nil {
+		return 0, err
+	}
+	z := complex(re, sign*im)
+	if cmplx.IsNaN(z) || cmplx.IsInf(z) {
+		return 0, fmt.Errorf("%q is not a finite impedance", s)
+	}
+	return z, nil
+}
+
+// FormatSI renders v with three significant figures and an SI prefix, then
+// unit: 1234 "V" -> "1.23 kV". Non-finite values render as "—" so no NaN or
+// Inf ever reaches a user.
+func FormatSI(v float64, unit string) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return "—"
+	}
+	if v == 0 {
+		return "0 " + unit
+	}
+	type pf struct {
+		f float64
+		p string
+	}
+	table := []pf{{1e9, "G"}, {1e6, "M"}, {1e3, "k"}, {1, ""}, {1e-3, "m"}, {1e-6, "µ"}, {1e-9, "n"}, {1e-12, "p"}, {1e-15, "f"}}
+	a := math.Abs(v)
+	chosen := table[len(table)-1]
+	for _, t := range table {
+		if a >= t.f*0.9995 {
+			chosen = t
+			break
+		}
+	}
+	x := v / chosen.f
+	var s string
+	switch ax := math.Abs(x); {
+	case ax >= 99.95:
+		s = strconv.FormatFloat(x, 'f', 0, 64)
+	case ax >= 9.995:
+		s = strconv.FormatFloat(x, 'f', 1, 64)
+	default:
+		s = strconv.FormatFloat(x, 'f', 2, 64)
+	}
+	return s + " " + chosen.p + unit
+}
+
+// FormatComplex renders an impedance as "12.5-j180 Ω".
+func FormatComplex(z complex128) string {
+	re, im := real(z), imag(z)
+	sign := "+"
+	if im < 0 {
+		sign = "-"
+		im = -im
+	}
+	return trimFloat(re) + sign + "j" + trimFloat(im) + " Ω"
+}
+
+func trimFloat(v float64) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return "—"
+	}
+	return strconv.FormatFloat(v, 'g', 4, 64)
+}

@@ -1,0 +1,3 @@
+module rfstress
+
+go 1.26.8
