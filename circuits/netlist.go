@@ -270,8 +270,8 @@ func (p *parser) errorf(pos Pos, want, format string, args ...any) {
 // and never panics on any input.
 func Parse(file string, src []byte) (*Netlist, error) {
 	p := &parser{
-		file: file,
-		nl:   &Netlist{File: file, Source: src},
+		file:  file,
+		nl:    &Netlist{File: file, Source: src},
 		names: map[string]Pos{}, coreNames: map[string]Pos{}, matNames: map[string]Pos{},
 		nodeSeen: map[string]bool{}, nodePos: map[string]Pos{},
 	}
