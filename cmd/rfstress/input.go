@@ -1,0 +1,102 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+
+	"rfstress/circuits"
+)
+
+// loadNetlist reads and parses one netlist file; input errors exit 2.
+func loadNetlist(path string) (*circuits.Netlist, *circuits.Circuit, error) {
+	src, err := os.ReadFile(path)
+	if err != nil {
+		return nil, nil, usagef("cannot read netlist: %v", err)
+	}
+	nl, err := circuits.Parse(path, src)
+	if err != nil {
+		return nil, nil, usageError{err}
+	}
+	c, err := circuits.Build(nl)
+	if err != nil {
+		return nil, nil, usageError{err}
+	}
+	return nl, c, nil
+}
+
+func parseFreq(flag, s string) (float64, error) {
+	v, err := circuits.ParseValue(s, "Hz")
+	if err != nil {
+		return 0, usagef("--%s %s: %v (a frequency such as 10.1M)", flag, s, err)
+	}
+	if v <= 0 {
+		return 0, usagef("--%s %s: frequency must be above zero", flag, s)
+	}
+	return v, nil
+}
+
+// output opens PATH for writing, or stdout for "-". Files are written to a
+// temporary name and renamed on Close so a failed run leaves no half file;
+// inputs are never overwritten.
+type output struct {
+	w    io.Writer
+	f    *os.File
+	path string
+	buf  bytes.Buffer
+}
+
+func openOutput(path string, stdout io.Writer, inputs []string) (*output, error) {
+	if path == "-" {
+		return &output{w: stdout}, nil
+	}
+	abs, _ := filepath.Abs(path)
+	for _, in := range inputs {
+		ai, _ := filepath.Abs(in)
+		if ai == abs {
+			return nil, usagef("refusing to overwrite input file %s", path)
+		}
+	}
+	o := &output{path: path}
+	o.w = &o.buf
+	return o, nil
+}
+
+func (o *output) Write(p []byte) (int, error) { return o.w.Write(p) }
+
+// Close writes the buffered bytes atomically.
+func (o *output) Close() error {
+	if o.path == "" {
+		return nil
+	}
+	return writeAtomic(o.path, o.buf.Bytes())
+}
+
+func writeAtomic(path string, data []byte) error {
+	dir := filepath.Dir(path)
+	tmp, err := os.CreateTemp(dir, ".rfstress-*")
+	if err != nil {
+		return fmt.Errorf("cannot write %s: %v", path, err)
+	}
+	name := tmp.Name()
+	if _, err := tmp.Write(data); err != nil {
+		tmp.Close()
+		os.Remove(name)
+		return fmt.Errorf("cannot write %s: %v", path, err)
+	}
+	if err := tmp.Close(); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("cannot write %s: %v", path, err)
+	}
+	if err := os.Chmod(name, 0o644); err != nil {
+		os.Remove(name)
+		return err
+	}
+	if err := os.Rename(name, path); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("cannot write %s: %v", path, err)
+	}
+	return nil
+}

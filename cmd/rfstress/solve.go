@@ -1,0 +1,194 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"math/cmplx"
+
+	"rfstress/circuits"
+	"rfstress/reports"
+)
+
+func init() {
+	register(command{name: "solve", summary: "solve one netlist at one frequency and list every part's voltage, current and dissipation", run: runSolve})
+	register(command{name: "response", summary: "frequency response (S-parameters) of a netlist, as a table, CSV or Touchstone 2.0", run: runResponse})
+}
+
+// parseLoad reads --load: an impedance, or the words open or short.
+func parseLoad(s string) (circuits.Load, string, error) {
+	switch s {
+	case "open":
+		return circuits.OpenLoad, "open (antenna disconnected)", nil
+	case "short":
+		return circuits.Short, "short", nil
+	}
+	z, err := circuits.ParseComplex(s)
+	if err != nil {
+		return circuits.Load{}, "", usagef("--load %s: %v (an impedance such as 50 or 12.5-j180, or open, or short)", s, err)
+	}
+	if real(z) < 0 {
+		return circuits.Load{}, "", usagef("--load %s: a passive load has no negative resistance", s)
+	}
+	return circuits.Load{Z: z}, circuits.FormatComplex(z), nil
+}
+
+func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
+	fs := newFlags("solve", "solve FILE --freq F [--power W] [--load Z] [--json PATH|-]",
+		"Solves the netlist at one frequency with the transmitter at port in (its power given as\navailable power from a source of the port's impedance) and the antenna port loaded by\nits own z or by --load.", stdout)
+	freq := fs.String("freq", "", "carrier frequency, e.g. 10.1M (required)")
+	power := fs.Float64("power", 100, "available power from the transmitter, W")
+	load := fs.String("load", "", "antenna-port load: impedance (12.5-j180), open or short; default the port's z")
+	jsonPath := fs.String("json", "", "write JSON to PATH, or - for stdout")
+	if help, err := parseFlags(fs, args); help || err != nil {
+		return exitOK, err
+	}
+	if fs.NArg() != 1 {
+		return exitUsage, usagef("solve needs exactly one netlist file (see rfstress solve --help)")
+	}
+	if *freq == "" {
+		return exitUsage, usagef("solve needs --freq, e.g. --freq 10.1M")
+	}
+	f, err := parseFreq("freq", *freq)
+	if err != nil {
+		return exitUsage, err
+	}
+	if !(*power > 0) || math.IsInf(*power, 0) {
+		return exitUsage, usagef("--power must be above zero watts")
+	}
+	file := fs.Arg(0)
+	nl, c, err := loadNetlist(file)
+	if err != nil {
+		return exitUsage, err
+	}
+	ld := circuits.Load{Z: c.Zout}
+	ldText := circuits.FormatComplex(c.Zout) + " (port z)"
+	if *load != "" {
+		if ld, ldText, err = parseLoad(*load); err != nil {
+			return exitUsage, err
+		}
+	}
+	r, err := c.Solve(f, *power, ld)
+	if err != nil {
+		return exitUsage, usagef("%s: %v", file, err)
+	}
+	sp, err := c.TwoPort(f)
+	if err != nil {
+		return exitUsage, usagef("%s: %v", file, err)
+	}
+	v := &reports.SolveView{File: file, Title: nl.Title, FrequencyHz: f, PowerW: *power, Load: ldText,
+		PinW: r.Pin, PoutW: r.Pout, PlossW: r.Ploss, ZinRe: real(r.Zin), ZinIm: imag(r.Zin),
+		S11dB: circuits.DB(sp.S11), S11deg: circuits.PhaseDeg(sp.S11), S21dB: circuits.DB(sp.S21), S21deg: circuits.PhaseDeg(sp.S21)}
+	for i, e := range c.Elements {
+		ps := r.Parts[i]
+		v.Components = append(v.Components, reports.SolvePart{Name: e.Name, Kind: string(e.Kind),
+			Vrms: cmplx.Abs(ps.V), Vpk: math.Sqrt2 * cmplx.Abs(ps.V), Irms: cmplx.Abs(ps.I), Pdiss: ps.Ploss})
+	}
+	if *jsonPath != "" {
+		out, err := openOutput(*jsonPath, stdout, []string{file})
+		if err != nil {
+			return exitUsage, err
+		}
+		if err := reports.WriteSolveJSON(out, v); err != nil {
+			return exitUsage, err
+		}
+		if err := out.Close(); err != nil {
+			return exitUsage, err
+		}
+		if *jsonPath == "-" {
+			return exitOK, nil
+		}
+	}
+	return exitOK, reports.WriteSolveText(stdout, v)
+}
+
+func runResponse(args []string, stdout, stderr io.Writer) (int, error) {
+	fs := newFlags("response", "response FILE [--from F] [--to F] [--points N] [--log] [--csv PATH|-] [--touchstone PATH]",
+		"Sweeps the netlist's two-port response between its ports, each port terminated in its\nown z. Touchstone output follows the Touchstone 2.0 specification (IBIS Open Forum).", stdout)
+	from := fs.String("from", "1M", "start frequency")
+	to := fs.String("to", "60M", "stop frequency")
+	points := fs.Int("points", 401, "number of frequencies")
+	logSweep := fs.Bool("log", false, "space frequencies logarithmically")
+	csvPath := fs.String("csv", "", "write CSV to PATH, or - for stdout")
+	tsPath := fs.String("touchstone", "", "write a Touchstone 2.0 file to PATH")
+	if help, err := parseFlags(fs, args); help || err != nil {
+		return exitOK, err
+	}
+	if fs.NArg() != 1 {
+		return exitUsage, usagef("response needs exactly one netlist file (see rfstress response --help)")
+	}
+	f1, err := parseFreq("from", *from)
+	if err != nil {
+		return exitUsage, err
+	}
+	f2, err := parseFreq("to", *to)
+	if err != nil {
+		return exitUsage, err
+	}
+	if f2 < f1 {
+		return exitUsage, usagef("--to %s is below --from %s", *to, *from)
+	}
+	if *points < 1 || *points > 1000000 {
+		return exitUsage, usagef("--points must be between 1 and 1000000")
+	}
+	file := fs.Arg(0)
+	nl, c, err := loadNetlist(file)
+	if err != nil {
+		return exitUsage, err
+	}
+	v := &reports.SweepView{File: file, Title: nl.Title, Z1: c.Zin, Z2: c.Zout}
+	for i := 0; i < *points; i++ {
+		f := f1
+		if *points > 1 {
+			t := float64(i) / float64(*points-1)
+			if *logSweep {
+				f = f1 * math.Pow(f2/f1, t)
+			} else {
+				f = f1 + (f2-f1)*t
+			}
+		}
+		sp, err := c.TwoPort(f)
+		if err != nil {
+			return exitUsage, usagef("%s: %v", file, err)
+		}
+		v.Points = append(v.Points, sp)
+	}
+	wrote := false
+	if *tsPath != "" {
+		if *tsPath == "-" {
+			return exitUsage, usagef("--touchstone needs a file path")
+		}
+		out, err := openOutput(*tsPath, stdout, []string{file})
+		if err != nil {
+			return exitUsage, err
+		}
+		if err := reports.WriteTouchstone(out, v); err != nil {
+			return exitUsage, usageError{err}
+		}
+		if err := out.Close(); err != nil {
+			return exitUsage, err
+		}
+		wrote = true
+	}
+	if *csvPath != "" {
+		out, err := openOutput(*csvPath, stdout, []string{file})
+		if err != nil {
+			return exitUsage, err
+		}
+		if err := reports.WriteSweepCSV(out, v); err != nil {
+			return exitUsage, err
+		}
+		if err := out.Close(); err != nil {
+			return exitUsage, err
+		}
+		if *csvPath == "-" {
+			return exitOK, nil
+		}
+		wrote = true
+	}
+	if wrote {
+		fmt.Fprintf(stdout, "%s: %d frequencies from %s to %s written\n", file, len(v.Points), circuits.FormatSI(f1, "Hz"), circuits.FormatSI(f2, "Hz"))
+		return exitOK, nil
+	}
+	return exitOK, reports.WriteSweepText(stdout, v)
+}
