@@ -53,6 +53,10 @@ func NewSplitWork(c *Circuit) *SplitWork {
 	}
 }
 
+// Rebind points the storage at another circuit of the same shape (a
+// tolerance trial of the same netlist).
+func (w *SplitWork) Rebind(c *Circuit) { w.fz.C = c }
+
 // Fill factorises the open-port network at f once and solves both
 // excitations into s.
 func (w *SplitWork) Fill(s *Split, f float64) error {
@@ -138,9 +142,24 @@ func (s *Split) MaxNodeV(alpha complex128, e float64) float64 {
 }
 
 // LoadOnCircle is the load on the circle of the given SWR around z0 at
-// angle θ of the reflection coefficient: Z = z0·(1+Γ)/(1−Γ).
+// angle θ of the reflection coefficient. Γ is the power-wave reflection
+// coefficient Γ = (Z − z0)/(Z + z0*) (Kurokawa 1965), so
+// Z = (z0 + Γ·z0*)/(1 − Γ); for a real z0 this is the familiar
+// Z = z0·(1+Γ)/(1−Γ), and for a complex z0 every load on the circle stays
+// passive.
 func LoadOnCircle(z0 complex128, swr, theta float64) Load {
 	g := (swr - 1) / (swr + 1)
 	gam := complex(g*math.Cos(theta), g*math.Sin(theta))
-	return Load{Z: z0 * (1 + gam) / (1 - gam)}
+	return Load{Z: (z0 + gam*conj(z0)) / (1 - gam)}
+}
+
+// ReflectionAngle is the angle θ in [0, 2π) of the power-wave reflection
+// coefficient of z against z0: the inverse of LoadOnCircle's angle.
+func ReflectionAngle(z0, z complex128) float64 {
+	g := (z - z0) / (z + conj(z0))
+	th := cmplx.Phase(g)
+	if th < 0 {
+		th += 2 * math.Pi
+	}
+	return th
 }

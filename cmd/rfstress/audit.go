@@ -1,0 +1,220 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"strings"
+
+	"github.com/spf13/pflag"
+
+	"rfstress/circuits"
+	"rfstress/ratings"
+	"rfstress/reports"
+	"rfstress/stress"
+)
+
+func init() {
+	register(command{name: "audit", summary: "stress audit: every part's worst voltage, current, dissipation, flux and temperature against its derated rating; safe power; PDF report", run: runAudit})
+}
+
+// conditionFlags are the flags that map one-to-one onto audit settings, so
+// a file's `audit` lines and the command line share one reader.
+var conditionFlags = []struct{ name, def, help string }{
+	{"power", "", "PEP in watts (default 100)"},
+	{"mode", "", "carrier, data, fm, cw, am or ssb: sets the average-to-PEP ratio (default carrier)"},
+	{"avg-ratio", "", "average-to-PEP power ratio, 0 < r ≤ 1 (overrides --mode)"},
+	{"drive", "", "available (power is the source's available power) or delivered (network absorbs it)"},
+	{"harmonics", "", "none, push-pull, single-ended, square, or dBc for 2nd,3rd,… e.g. -30,-12,-40 (default push-pull)"},
+	{"harmonic-max", "", "highest harmonic order audited (default 9)"},
+	{"band", "", "carrier band lo:hi, e.g. 10.1M:10.15M"},
+	{"freq", "", "a single carrier frequency instead of a band"},
+	{"points", "", "carrier frequencies across the band (default 7)"},
+	{"swr", "", "SWR of the load circle around the antenna port's z (default 1: matched only)"},
+	{"phases", "", "loads around the SWR circle (default 72)"},
+	{"faults", "", "antenna faults: open, short, open,short or none"},
+	{"derate", "", "derating profile: standard, strict, none, or a profile file (default standard)"},
+	{"ambient", "", "ambient temperature, °C (default 25)"},
+}
+
+func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
+	fs := newFlags("audit", "audit FILE... [conditions] [--json PATH|-] [--csv PATH|-] [--report PDF]",
+		"Audits each netlist (several files form a bank, one overall verdict) under the transmit\n"+
+			"conditions written in its `audit` lines, overridden by the options below. Exit status:\n"+
+			"0 within limits, 1 a part beyond what --fail-on counts, 2 usage or input error.", stdout)
+	vals := map[string]*string{}
+	for _, f := range conditionFlags {
+		vals[f.name] = fs.String(f.name, f.def, f.help)
+	}
+	loads := fs.StringArray("load", nil, "explicit antenna load, complex allowed (repeatable): 12.5-j180")
+	also := fs.StringArray("carrier-also", nil, "extra carrier outside the band, e.g. a wrong filter selected (repeatable)")
+	materials := fs.String("materials", "", "file of extra core materials (material lines)")
+	allowUnrated := fs.Bool("allow-unrated", false, "let unrated parts pass the overall verdict")
+	failOn := fs.String("fail-on", "unrated", "lowest verdict that makes the exit status 1: unrated, marginal, fail or never")
+	caution := fs.Float64("caution-volts", 300, "print a caution when any node exceeds this peak voltage")
+	jsonPath := fs.String("json", "", "write JSON to PATH, or - for stdout")
+	csvPath := fs.String("csv", "", "write the part table as CSV to PATH, or - for stdout")
+	reportPath := fs.String("report", "", "write the PDF stress report to PATH")
+	tol := addTolFlags(fs)
+	if help, err := parseFlags(fs, args); help || err != nil {
+		return exitOK, err
+	}
+	files := fs.Args()
+	if len(files) == 0 {
+		return exitUsage, usagef("audit needs at least one netlist file (see rfstress audit --help)")
+	}
+	threshold, err := failLevel(*failOn)
+	if err != nil {
+		return exitUsage, err
+	}
+	var flagSettings []stress.Setting
+	fs.Visit(func(f *pflag.Flag) {
+		if _, ok := vals[f.Name]; ok {
+			flagSettings = append(flagSettings, stress.Setting{Key: f.Name, Value: f.Value.String(), Flag: true})
+		}
+	})
+	for _, l := range *loads {
+		flagSettings = append(flagSettings, stress.Setting{Key: "load", Value: l, Flag: true})
+	}
+	for _, f := range *also {
+		flagSettings = append(flagSettings, stress.Setting{Key: "carrier-also", Value: f, Flag: true})
+	}
+	mats := ratings.Builtin()
+	if *materials != "" {
+		src, err := os.ReadFile(*materials)
+		if err != nil {
+			return exitUsage, usagef("cannot read materials: %v", err)
+		}
+		extra, err := ratings.LoadMaterials(*materials, src)
+		if err != nil {
+			return exitUsage, usageError{err}
+		}
+		for k, m := range extra {
+			mats[k] = m
+		}
+	}
+
+	var sections []*stress.Section
+	var engines []*stress.Engine
+	var inputErrs []string
+	for _, file := range files {
+		nl, c, err := loadNetlist(file)
+		if err != nil {
+			inputErrs = append(inputErrs, err.Error())
+			continue
+		}
+		cond := stress.Defaults()
+		if err := cond.Apply(append(stress.FileSettings(nl), flagSettings...)); err != nil {
+			inputErrs = append(inputErrs, err.Error())
+			continue
+		}
+		if err := cond.Check(); err != nil {
+			inputErrs = append(inputErrs, file+": "+err.Error())
+			continue
+		}
+		prof, err := ratings.LoadProfile(cond.Derate, os.ReadFile)
+		if err != nil {
+			inputErrs = append(inputErrs, err.Error())
+			continue
+		}
+		rs, err := ratings.Prepare(nl, mats, prof)
+		if err != nil {
+			inputErrs = append(inputErrs, err.Error())
+			continue
+		}
+		eng, err := stress.NewEngine(c, rs, cond)
+		if err != nil {
+			inputErrs = append(inputErrs, file+": "+err.Error())
+			continue
+		}
+		eng.AllowUnrated = *allowUnrated
+		sec, err := eng.Audit()
+		if err != nil {
+			inputErrs = append(inputErrs, file+": "+err.Error())
+			continue
+		}
+		if tol.trials != 0 {
+			tr, err := runTolerance(eng, sec, tol, stderr)
+			if err != nil {
+				return exitUsage, err
+			}
+			sec.Tolerance = tr
+		}
+		sections = append(sections, sec)
+		engines = append(engines, eng)
+	}
+	if len(inputErrs) > 0 {
+		return exitUsage, usageError{fmt.Errorf("%s", strings.Join(inputErrs, "\n"))}
+	}
+	bank := stress.NewBank(sections)
+
+	wroteStdout := false
+	if *jsonPath != "" {
+		if err := writeTo(*jsonPath, stdout, files, func(w io.Writer) error {
+			return reports.WriteAuditJSON(w, reports.AuditJSON(bank))
+		}); err != nil {
+			return exitUsage, err
+		}
+		wroteStdout = wroteStdout || *jsonPath == "-"
+	}
+	if *csvPath != "" {
+		if err := writeTo(*csvPath, stdout, files, func(w io.Writer) error { return reports.WriteAuditCSV(w, bank) }); err != nil {
+			return exitUsage, err
+		}
+		wroteStdout = wroteStdout || *csvPath == "-"
+	}
+	if *reportPath != "" {
+		if *reportPath == "-" {
+			return exitUsage, usagef("--report needs a file path")
+		}
+		doc := buildReportDoc(bank, engines, *caution)
+		if err := writeTo(*reportPath, stdout, files, func(w io.Writer) error { return writePDF(w, doc) }); err != nil {
+			return exitUsage, err
+		}
+	}
+	if !wroteStdout {
+		if err := reports.WriteAuditText(stdout, bank, *caution); err != nil {
+			return exitUsage, err
+		}
+		if *reportPath != "" {
+			fmt.Fprintf(stdout, "  report written to %s\n", *reportPath)
+		}
+	} else {
+		for _, s := range bank.Sections {
+			if s.MaxNodeVpk >= *caution {
+				fmt.Fprintf(stderr, "rfstress: CAUTION: %s peak RF at %s node %s; never touch or adjust while transmitting (SAFETY.md)\n",
+					circuits.FormatSI(s.MaxNodeVpk, "V"), s.File, s.MaxNodeAt)
+			}
+		}
+	}
+	if threshold >= 0 && bank.Verdict >= ratings.Verdict(threshold) && bank.Verdict != ratings.OK {
+		return exitOver, nil
+	}
+	return exitOK, nil
+}
+
+func failLevel(s string) (int, error) {
+	switch s {
+	case "unrated":
+		return int(ratings.Unrated), nil
+	case "marginal":
+		return int(ratings.Marginal), nil
+	case "fail":
+		return int(ratings.Fail), nil
+	case "never":
+		return -1, nil
+	}
+	return 0, usagef("--fail-on %s: expected unrated, marginal, fail or never", s)
+}
+
+// writeTo writes through fn to PATH atomically, or to stdout for "-".
+func writeTo(path string, stdout io.Writer, inputs []string, fn func(io.Writer) error) error {
+	out, err := openOutput(path, stdout, inputs)
+	if err != nil {
+		return err
+	}
+	if err := fn(out); err != nil {
+		return err
+	}
+	return out.Close()
+}

@@ -1,0 +1,262 @@
+package reports
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+
+	"rfstress/circuits"
+	"rfstress/ratings"
+	"rfstress/stress"
+)
+
+// unitOf is the display unit of each quantity.
+func unitOf(q ratings.Quantity) string {
+	switch q {
+	case ratings.Vpk, ratings.Vrms:
+		return "V"
+	case ratings.Irms:
+		return "A"
+	case ratings.Pdiss:
+		return "W"
+	case ratings.Bpk:
+		return "T"
+	case ratings.Temp:
+		return "°C"
+	case ratings.Jrms:
+		return "A/mm²"
+	}
+	return ""
+}
+
+// QuantityLabel names a quantity for people.
+func QuantityLabel(q ratings.Quantity) string {
+	switch q {
+	case ratings.Vpk:
+		return "peak voltage"
+	case ratings.Vrms:
+		return "RMS voltage"
+	case ratings.Irms:
+		return "RMS current"
+	case ratings.Pdiss:
+		return "dissipation"
+	case ratings.Bpk:
+		return "peak flux density"
+	case ratings.Temp:
+		return "temperature"
+	case ratings.Jrms:
+		return "current density"
+	}
+	return string(q)
+}
+
+// FormatQ renders a stress value in its unit.
+func FormatQ(q ratings.Quantity, v float64) string {
+	switch q {
+	case ratings.Temp:
+		return num(v, 0) + " °C"
+	case ratings.Jrms:
+		return num(v/1e6, 1) + " A/mm²"
+	}
+	return circuits.FormatSI(v, unitOf(q))
+}
+
+// FormatPower renders a safe power; +Inf means no rated limit binds.
+func FormatPower(w float64) string {
+	if math.IsInf(w, 1) {
+		return "not limited by any rating"
+	}
+	return circuits.FormatSI(w, "W") + " PEP"
+}
+
+func pct(u float64) string {
+	if u <= 0 || math.IsNaN(u) || math.IsInf(u, 0) {
+		return "—"
+	}
+	return strconv.FormatFloat(100*u, 'f', 0, 64) + " %"
+}
+
+// ValueText renders a part's value with its unit.
+func ValueText(k circuits.Kind, v float64) string {
+	switch k {
+	case circuits.Capacitor:
+		return circuits.FormatSI(v, "F")
+	case circuits.Inductor:
+		return circuits.FormatSI(v, "H")
+	}
+	return circuits.FormatSI(v, "Ω")
+}
+
+// ConditionsText summarises the conditions of a section in lines.
+func ConditionsText(c stress.Conditions) []string {
+	si := circuits.FormatSI
+	var lines []string
+	mode := c.Mode
+	if mode == "custom" {
+		mode = "set directly"
+	}
+	lines = append(lines, fmt.Sprintf("power %s PEP, mode %s (average %s of PEP), drive %s",
+		strings.TrimSuffix(si(c.PowerW, "W"), ""), mode, pct(c.AvgRatio), c.Drive))
+	band := si(c.BandLo, "Hz")
+	if c.BandHi > c.BandLo {
+		band = fmt.Sprintf("%s to %s, %d carriers", si(c.BandLo, "Hz"), si(c.BandHi, "Hz"), c.Points)
+	}
+	if len(c.CarrierAlso) > 0 {
+		var also []string
+		for _, f := range c.CarrierAlso {
+			also = append(also, si(f, "Hz"))
+		}
+		band += "; also " + strings.Join(also, ", ") + " (outside the band)"
+	}
+	lines = append(lines, "carriers "+band)
+	loads := "matched"
+	if c.SWR > 1 {
+		loads += fmt.Sprintf(", SWR %s:1 circle at %d phases", num(c.SWR, 2), c.Phases)
+	}
+	for _, z := range c.Loads {
+		loads += ", " + circuits.FormatComplex(z)
+	}
+	if len(c.Faults) > 0 {
+		loads += ", faults " + strings.Join(c.Faults, " and ")
+	}
+	lines = append(lines, "antenna port "+loads)
+	h := "none"
+	if c.HarmonicMax > 1 && c.Harmonics != "none" {
+		var lv []string
+		for i, d := range c.HarmonicDBc {
+			if i+2 > c.HarmonicMax {
+				break
+			}
+			if math.IsInf(d, -1) {
+				continue
+			}
+			lv = append(lv, fmt.Sprintf("%d:%s", i+2, num(d, 1)))
+		}
+		h = c.Harmonics + " (dBc " + strings.Join(lv, " ") + ")"
+	}
+	lines = append(lines, "harmonics "+h)
+	lines = append(lines, fmt.Sprintf("derating %s, ambient %s °C", c.Derate, num(c.Ambient, 0)))
+	return lines
+}
+
+// WriteAuditText writes the bank as text tables.
+func WriteAuditText(w io.Writer, b *stress.Bank, cautionV float64) error {
+	n := len(b.Sections)
+	plural := "netlist"
+	if n != 1 {
+		plural = "netlists"
+	}
+	fmt.Fprintf(w, "rfstress audit of %d %s\n", n, plural)
+	for _, s := range b.Sections {
+		writeSectionText(w, s)
+	}
+	fmt.Fprintln(w)
+	fmt.Fprintf(w, "OVERALL  %s\n", VerdictWords(b.Verdict))
+	if math.IsInf(b.SafeW, 1) {
+		fmt.Fprintln(w, "  maximum safe power: no rated limit binds (add ratings)")
+	} else {
+		fmt.Fprintf(w, "  maximum safe power %s, set by %s %s in %s\n", FormatPower(b.SafeW), b.LimitPart, QuantityLabel(b.LimitQ), b.LimitFile)
+	}
+	var hot []string
+	for _, s := range b.Sections {
+		if s.MaxNodeVpk >= cautionV {
+			hot = append(hot, fmt.Sprintf("%s node %s", s.File, s.MaxNodeAt))
+		}
+	}
+	if len(hot) > 0 {
+		fmt.Fprintf(w, "  CAUTION: RF above %s peak at %s — RF burns and arcing; never touch or adjust while transmitting (SAFETY.md)\n",
+			circuits.FormatSI(cautionV, "V"), strings.Join(hot, ", "))
+	}
+	return nil
+}
+
+// VerdictWords is the overall verdict in a sentence.
+func VerdictWords(v ratings.Verdict) string {
+	switch v {
+	case ratings.OK:
+		return "OK — every part within its derated limits"
+	case ratings.Unrated:
+		return "INCOMPLETE — some stressed parts have no rating"
+	case ratings.Marginal:
+		return "MARGINAL — some parts exceed their derated limits but not their ratings"
+	}
+	return "FAIL — some parts exceed their ratings"
+}
+
+var shown = []ratings.Quantity{ratings.Vpk, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp}
+
+func writeSectionText(w io.Writer, s *stress.Section) {
+	fmt.Fprintf(w, "\n== %s\n", heading(s.File, s.Title))
+	for _, l := range ConditionsText(s.Conditions) {
+		fmt.Fprintf(w, "   %s\n", l)
+	}
+	fmt.Fprintf(w, "   %d cases\n\n", s.NumCases)
+	t := newTable("part", "value", "peak V", "RMS I", "dissip.", "flux", "temp.", "use", "verdict", "binding quantity and case")
+	t.leftCols = 2
+	for _, p := range s.Parts {
+		cells := []string{p.Name, ValueText(p.Kind, p.Value)}
+		for _, q := range shown {
+			if st, ok := p.Stress[q]; ok {
+				cells = append(cells, FormatQ(q, st.Value))
+			} else {
+				cells = append(cells, "")
+			}
+		}
+		cells = append(cells, pct(p.Util), p.Verdict.String(), bindingText(s, p))
+		t.row(cells...)
+	}
+	t.write(w)
+	if up := s.Upgrades(); len(up) > 0 {
+		fmt.Fprintln(w, "\n   to change:")
+		for _, u := range up {
+			fmt.Fprintf(w, "   %-8s %-8s %s %s — %s\n", u.Part, u.Stress.Verdict, QuantityLabel(u.Stress.Quantity), FormatQ(u.Stress.Quantity, u.Stress.Value), UpgradeText(u))
+		}
+	}
+	if len(s.Findings) > 0 {
+		fmt.Fprintln(w, "\n   findings:")
+		for _, f := range s.Findings {
+			fmt.Fprintf(w, "   %s %s: %s\n", f.Part, f.Severity, f.Text)
+		}
+	}
+	fmt.Fprintf(w, "\n   safe power %s", FormatPower(s.SafeW))
+	if !math.IsInf(s.SafeW, 1) {
+		fmt.Fprintf(w, " (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
+	}
+	fmt.Fprintf(w, "; highest node voltage %s peak at %s (%s)\n", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, s.Case(s.MaxNodeCase).Describe())
+}
+
+// bindingText names the quantity closest to its limit and the case.
+func bindingText(s *stress.Section, p *stress.PartResult) string {
+	var best *stress.Stress
+	for _, q := range stress.Quantities {
+		st, ok := p.Stress[q]
+		if !ok || st.Limit.Quantity == "" {
+			continue
+		}
+		if best == nil || st.Verdict > best.Verdict || st.Verdict == best.Verdict && st.Util > best.Util {
+			best = st
+		}
+	}
+	if best == nil {
+		return "no ratings apply"
+	}
+	c := best.UtilCase
+	if best.Limit.Abs <= 0 {
+		c = best.Case
+	}
+	return string(best.Quantity) + ": " + s.Case(c).Describe()
+}
+
+// UpgradeText says what rating to buy.
+func UpgradeText(u stress.Upgrade) string {
+	st := u.Stress
+	if st.BuyText != "" {
+		return st.BuyText
+	}
+	if st.Buy > 0 {
+		return "rate for at least " + FormatQ(st.Quantity, st.Buy)
+	}
+	return "reduce the stress"
+}

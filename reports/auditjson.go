@@ -1,0 +1,256 @@
+package reports
+
+import (
+	"encoding/csv"
+	"io"
+	"math"
+	"strconv"
+
+	"rfstress/ratings"
+	"rfstress/stress"
+)
+
+// jsonNum keeps JSON free of NaN and Inf: non-finite values become null.
+func jsonNum(v float64) *float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return nil
+	}
+	return &v
+}
+
+// QuantSet holds one value per quantity, in a fixed key order.
+type QuantSet struct {
+	Vpk   *float64 `json:"vpk,omitempty"`
+	Vrms  *float64 `json:"vrms,omitempty"`
+	Irms  *float64 `json:"irms,omitempty"`
+	Pdiss *float64 `json:"pdiss,omitempty"`
+	Bpk   *float64 `json:"bpk,omitempty"`
+	Temp  *float64 `json:"temp_c,omitempty"`
+	Jrms  *float64 `json:"jrms,omitempty"`
+}
+
+// CaseSet holds one case description per quantity.
+type CaseSet struct {
+	Vpk   string `json:"vpk,omitempty"`
+	Vrms  string `json:"vrms,omitempty"`
+	Irms  string `json:"irms,omitempty"`
+	Pdiss string `json:"pdiss,omitempty"`
+	Bpk   string `json:"bpk,omitempty"`
+	Temp  string `json:"temp_c,omitempty"`
+	Jrms  string `json:"jrms,omitempty"`
+}
+
+func (s *QuantSet) set(q ratings.Quantity, v float64) {
+	p := jsonNum(v)
+	switch q {
+	case ratings.Vpk:
+		s.Vpk = p
+	case ratings.Vrms:
+		s.Vrms = p
+	case ratings.Irms:
+		s.Irms = p
+	case ratings.Pdiss:
+		s.Pdiss = p
+	case ratings.Bpk:
+		s.Bpk = p
+	case ratings.Temp:
+		s.Temp = p
+	case ratings.Jrms:
+		s.Jrms = p
+	}
+}
+
+func (s *CaseSet) set(q ratings.Quantity, v string) {
+	switch q {
+	case ratings.Vpk:
+		s.Vpk = v
+	case ratings.Vrms:
+		s.Vrms = v
+	case ratings.Irms:
+		s.Irms = v
+	case ratings.Pdiss:
+		s.Pdiss = v
+	case ratings.Bpk:
+		s.Bpk = v
+	case ratings.Temp:
+		s.Temp = v
+	case ratings.Jrms:
+		s.Jrms = v
+	}
+}
+
+// JSONLimit is one rated quantity of a part.
+type JSONLimit struct {
+	Quantity    string   `json:"quantity"`
+	Rating      *float64 `json:"rating"`
+	Derated     *float64 `json:"derated"`
+	Basis       string   `json:"basis"`
+	Utilization *float64 `json:"utilization"`
+	Verdict     string   `json:"verdict"`
+	SafePowerW  *float64 `json:"safe_power_w"`
+	Buy         *float64 `json:"buy,omitempty"`
+	BuyText     string   `json:"buy_text,omitempty"`
+}
+
+// JSONComponent is one part of the audit.
+type JSONComponent struct {
+	File        string      `json:"file"`
+	Name        string      `json:"name"`
+	Kind        string      `json:"kind"`
+	Value       float64     `json:"value"`
+	Worst       QuantSet    `json:"worst"`
+	Cases       CaseSet     `json:"cases"`
+	Verdict     string      `json:"verdict"`
+	Utilization *float64    `json:"utilization"`
+	SafePowerW  *float64    `json:"safe_power_w"`
+	Limits      []JSONLimit `json:"limits"`
+	Findings    []string    `json:"findings,omitempty"`
+}
+
+// JSONLimiting names what sets the safe power.
+type JSONLimiting struct {
+	File      string `json:"file,omitempty"`
+	Component string `json:"component,omitempty"`
+	Quantity  string `json:"quantity,omitempty"`
+}
+
+// JSONSection summarises one netlist.
+type JSONSection struct {
+	File       string       `json:"file"`
+	Title      string       `json:"title"`
+	SHA256     string       `json:"sha256"`
+	Verdict    string       `json:"verdict"`
+	SafePowerW *float64     `json:"safe_power_w"`
+	Limiting   JSONLimiting `json:"limiting"`
+	Cases      int          `json:"cases"`
+	BandLoHz   float64      `json:"band_lo_hz"`
+	BandHiHz   float64      `json:"band_hi_hz"`
+	SWR        float64      `json:"swr"`
+	Harmonics  string       `json:"harmonics"`
+	MaxNodeVpk float64      `json:"max_node_vpk"`
+	Findings   []string     `json:"findings,omitempty"`
+}
+
+// JSONAudit is the whole audit document.
+type JSONAudit struct {
+	PowerW     float64         `json:"power_w"`
+	Mode       string          `json:"mode"`
+	AvgRatio   float64         `json:"avg_ratio"`
+	Verdict    string          `json:"verdict"`
+	SafePowerW *float64        `json:"safe_power_w"`
+	Limiting   JSONLimiting    `json:"limiting"`
+	Cases      int             `json:"cases"`
+	Sections   []JSONSection   `json:"sections"`
+	Components []JSONComponent `json:"components"`
+	Tolerance  *JSONTolerance  `json:"tolerance,omitempty"`
+}
+
+// AuditJSON builds the JSON document of a bank.
+func AuditJSON(b *stress.Bank) *JSONAudit {
+	doc := &JSONAudit{Verdict: b.Verdict.String(), SafePowerW: jsonNum(b.SafeW),
+		Limiting: JSONLimiting{File: b.LimitFile, Component: b.LimitPart, Quantity: string(b.LimitQ)}}
+	for i, s := range b.Sections {
+		if i == 0 {
+			doc.PowerW, doc.Mode, doc.AvgRatio = s.Conditions.PowerW, s.Conditions.Mode, s.Conditions.AvgRatio
+		}
+		doc.Cases += s.NumCases
+		js := JSONSection{File: s.File, Title: s.Title, SHA256: s.SHA256, Verdict: s.Verdict.String(),
+			SafePowerW: jsonNum(s.SafeW), Limiting: JSONLimiting{Component: s.LimitPart, Quantity: string(s.LimitQ)},
+			Cases: s.NumCases, BandLoHz: s.Conditions.BandLo, BandHiHz: s.Conditions.BandHi, SWR: s.Conditions.SWR,
+			Harmonics: s.Conditions.Harmonics, MaxNodeVpk: s.MaxNodeVpk}
+		for _, f := range s.Findings {
+			js.Findings = append(js.Findings, f.Part+": "+f.Text)
+		}
+		doc.Sections = append(doc.Sections, js)
+		for _, p := range s.Parts {
+			jc := JSONComponent{File: s.File, Name: p.Name, Kind: string(p.Kind), Value: p.Value, Verdict: p.Verdict.String(),
+				Utilization: jsonNum(p.Util), SafePowerW: jsonNum(p.SafeW), Limits: []JSONLimit{}}
+			for _, q := range stress.Quantities {
+				st, ok := p.Stress[q]
+				if !ok {
+					continue
+				}
+				jc.Worst.set(q, st.Value)
+				jc.Cases.set(q, s.Case(st.Case).Describe())
+				if st.Limit.Quantity == "" {
+					continue
+				}
+				jl := JSONLimit{Quantity: string(q), Rating: jsonNum(st.Limit.Abs), Derated: jsonNum(st.Limit.Derated),
+					Basis: st.Limit.Basis, Utilization: jsonNum(st.Util), Verdict: st.Verdict.String(), SafePowerW: jsonNum(st.SafeW), BuyText: st.BuyText}
+				if st.Limit.Abs <= 0 {
+					jl.Rating, jl.Derated, jl.Utilization = nil, nil, nil
+				}
+				if st.Buy > 0 {
+					jl.Buy = jsonNum(st.Buy)
+				}
+				jc.Limits = append(jc.Limits, jl)
+			}
+			for _, f := range p.Findings {
+				jc.Findings = append(jc.Findings, f.Severity+": "+f.Text)
+			}
+			doc.Components = append(doc.Components, jc)
+		}
+	}
+	return doc
+}
+
+// WriteAuditJSON writes the audit document.
+func WriteAuditJSON(w io.Writer, doc *JSONAudit) error { return writeJSON(w, doc) }
+
+// WriteAuditCSV writes one row per part and kind of case, SI units in the
+// header.
+func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
+	cw := csv.NewWriter(w)
+	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "temp_c", "jrms_a_per_m2", "vpk_case", "irms_case", "part_verdict", "part_utilization"})
+	for _, s := range b.Sections {
+		for _, p := range s.Parts {
+			for _, k := range p.ByKind {
+				row := []string{s.File, p.Name, string(p.Kind), k.Kind.String()}
+				for _, q := range stress.Quantities {
+					if v, ok := k.Value[q]; ok {
+						row = append(row, csvNum(v))
+					} else {
+						row = append(row, "")
+					}
+				}
+				row = append(row, s.Case(k.Case[ratings.Vpk]).Describe(), s.Case(k.Case[ratings.Irms]).Describe(), p.Verdict.String(), csvNum(p.Util))
+				cw.Write(row)
+			}
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+func csvNum(v float64) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return ""
+	}
+	return strconv.FormatFloat(v, 'g', 6, 64)
+}
+
+// JSONTolerance is filled by the tolerance analysis.
+type JSONTolerance struct {
+	Trials       int                 `json:"trials"`
+	Seed         int64               `json:"seed"`
+	Distribution string              `json:"distribution"`
+	SafePowerP99 *float64            `json:"safe_power_w_p01"`
+	Components   []JSONTolComponent `json:"components"`
+}
+
+// JSONTolComponent is one part's tolerance spread.
+type JSONTolComponent struct {
+	File       string                 `json:"file"`
+	Name       string                 `json:"name"`
+	Quantities []JSONTolQuantity      `json:"quantities"`
+}
+
+// JSONTolQuantity is the spread of one stress over the trials.
+type JSONTolQuantity struct {
+	Quantity      string   `json:"quantity"`
+	Median        *float64 `json:"median"`
+	P99           *float64 `json:"p99"`
+	Max           *float64 `json:"max"`
+	OverDerated   float64  `json:"share_over_derated"`
+	OverRating    float64  `json:"share_over_rating"`
+}

@@ -1,0 +1,26 @@
+package reports
+
+import (
+	"time"
+
+	"rfstress/stress"
+)
+
+// ReportDoc is everything the PDF report shows, computed before it is
+// drawn: the report only lays it out.
+type ReportDoc struct {
+	Tool     string    // "rfstress 0.4.0"
+	Date     time.Time // from SOURCE_DATE_EPOCH when set, else now (UTC)
+	Bank     *stress.Bank
+	Filters  []FilterPlot // one per section, same order
+	CautionV float64      // node voltage above which the caution is stressed
+}
+
+// FilterPlot is the data for one filter's response plot.
+type FilterPlot struct {
+	Sweep     []stress.SweepPoint // matched response, log-spaced
+	BandLo    float64
+	BandHi    float64
+	Harmonics []stress.HarmonicLine
+	Extra     []float64 // carrier-also frequencies
+}

@@ -1,0 +1,617 @@
+package stress
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+
+	"rfstress/circuits"
+	"rfstress/ratings"
+)
+
+// Quantities audited per part, in report order.
+var Quantities = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp, ratings.Jrms}
+
+// CaseKind says what terminates the antenna port in a case.
+type CaseKind int
+
+// The kinds of case, in the order they are laid out per carrier.
+const (
+	Matched CaseKind = iota
+	Circle
+	Explicit
+	FaultOpen
+	FaultShort
+	nKind
+)
+
+func (k CaseKind) String() string {
+	return [...]string{"matched", "swr-circle", "load", "open", "short"}[k]
+}
+
+// Case is one carrier frequency with one antenna-port termination.
+type Case struct {
+	F       float64
+	Kind    CaseKind
+	Load    circuits.Load
+	Theta   float64 // reflection angle on the SWR circle, degrees
+	OffBand bool    // a carrier-also frequency (wrong filter selected)
+}
+
+// Describe renders the case for people.
+func (c Case) Describe() string {
+	f := circuits.FormatSI(c.F, "Hz")
+	if c.OffBand {
+		f += " (outside the band)"
+	}
+	switch c.Kind {
+	case Matched:
+		return f + ", matched load " + circuits.FormatComplex(c.Load.Z)
+	case Circle:
+		return fmt.Sprintf("%s, mismatch Γ∠%.0f° (%s)", f, c.Theta, circuits.FormatComplex(c.Load.Z))
+	case Explicit:
+		return f + ", load " + circuits.FormatComplex(c.Load.Z)
+	case FaultOpen:
+		return f + ", antenna open"
+	}
+	return f + ", antenna shorted"
+}
+
+// Stress is the worst of one quantity of one part over all cases.
+type Stress struct {
+	Quantity ratings.Quantity
+	Value    float64 // largest stress over all cases (SI; °C for temp)
+	Case     int     // case index of Value
+	Util     float64 // largest stress/derated-limit over all cases (0 when unrated)
+	UtilCase int
+	Limit    ratings.Limit // the limit at UtilCase
+	Verdict  ratings.Verdict
+	SafeW    float64 // PEP at which this quantity meets its derated limit (+Inf when unlimited)
+	Buy      float64 // rating to buy (0 when none needed or not purchasable)
+	BuyText  string
+}
+
+// PartResult is one part's audit.
+type PartResult struct {
+	Name     string
+	Kind     circuits.Kind
+	Value    float64
+	Stress   map[ratings.Quantity]*Stress
+	Verdict  ratings.Verdict
+	Util     float64 // worst utilisation of derated limits
+	SafeW    float64
+	Limiting ratings.Quantity
+	Findings []ratings.Finding
+	Rating   *ratings.Part
+	ByKind   []KindWorst
+}
+
+// Engine holds what an audit reuses across tolerance trials: the circuit,
+// its ratings and the case layout. Cases are not stored one by one: per
+// carrier they are laid out as matched, the SWR circle's phases, explicit
+// loads, then faults, and Case(i) decodes an index.
+type Engine struct {
+	C            *circuits.Circuit
+	R            *ratings.Set
+	Cond         Conditions
+	AllowUnrated bool
+	levels       []float64
+	carriers     []float64
+	nBand        int
+	circle       []circuits.Load
+	faults       []CaseKind
+	perCarrier   int
+	rparts       []*ratings.Part
+}
+
+// NewEngine prepares the case layout for c under cond.
+func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, error) {
+	if err := cond.Check(); err != nil {
+		return nil, err
+	}
+	e := &Engine{C: c, R: rs, Cond: cond, levels: cond.HarmonicLevels()}
+	if cond.SWR > 1 {
+		for k := 0; k < cond.Phases; k++ {
+			e.circle = append(e.circle, circuits.LoadOnCircle(c.Zout, cond.SWR, e.phaseAngle(k)))
+		}
+	}
+	band := cond.Carriers()
+	e.nBand = len(band) - len(cond.CarrierAlso)
+	e.carriers = band
+	for _, fl := range cond.Faults {
+		if fl == "open" {
+			e.faults = append(e.faults, FaultOpen)
+		} else {
+			e.faults = append(e.faults, FaultShort)
+		}
+	}
+	e.perCarrier = 1 + len(e.circle) + len(cond.Loads) + len(e.faults)
+	for _, el := range c.Elements {
+		var rp *ratings.Part
+		if rs != nil {
+			rp = rs.Parts[el.Name]
+		}
+		e.rparts = append(e.rparts, rp)
+	}
+	return e, nil
+}
+
+func (e *Engine) phaseAngle(k int) float64 {
+	return 2 * math.Pi * float64(k) / float64(e.Cond.Phases)
+}
+
+// NumCases is the number of cases audited.
+func (e *Engine) NumCases() int { return len(e.carriers) * e.perCarrier }
+
+// Case decodes case index i.
+func (e *Engine) Case(i int) Case {
+	fi, j := i/e.perCarrier, i%e.perCarrier
+	c := Case{F: e.carriers[fi], OffBand: fi >= e.nBand}
+	switch {
+	case j == 0:
+		c.Kind, c.Load = Matched, circuits.Load{Z: e.C.Zout}
+	case j <= len(e.circle):
+		c.Kind, c.Load, c.Theta = Circle, e.circle[j-1], 360*float64(j-1)/float64(len(e.circle))
+	case j <= len(e.circle)+len(e.Cond.Loads):
+		c.Kind, c.Load = Explicit, circuits.Load{Z: e.Cond.Loads[j-1-len(e.circle)]}
+	default:
+		c.Kind = e.faults[j-1-len(e.circle)-len(e.Cond.Loads)]
+		c.Load = circuits.OpenLoad
+		if c.Kind == FaultShort {
+			c.Load = circuits.Short
+		}
+	}
+	return c
+}
+
+// harmonic load classes: what terminates the antenna port at harmonics.
+const (
+	hNormal = iota // the SWR circle (or the matched load when SWR is 1)
+	hOpen
+	hShort
+	nClass
+)
+
+func classOf(k CaseKind) int {
+	switch k {
+	case FaultOpen:
+		return hOpen
+	case FaultShort:
+		return hShort
+	}
+	return hNormal
+}
+
+const nQ = 7
+
+const (
+	qVpk = iota
+	qVrms
+	qIrms
+	qPdiss
+	qBpk
+	qTemp
+	qJrms
+)
+
+// accum is the running worst of one part.
+type accum struct {
+	val      [nQ]float64
+	valCase  [nQ]int
+	util     [nQ]float64
+	utilCase [nQ]int
+	has      [nQ]bool
+	kind     [nKind][nQ]float64
+	kindCase [nKind][nQ]int
+	kindSeen [nKind]bool
+}
+
+func (a *accum) reset() {
+	*a = accum{}
+	for k := range a.kindCase {
+		for q := range a.kindCase[k] {
+			a.kindCase[k][q] = -1
+		}
+	}
+}
+
+// workspace holds per-run storage so the case loop allocates nothing.
+type workspace struct {
+	c     *circuits.Circuit
+	sw    *circuits.SplitWork
+	carr  *circuits.Split
+	harm  []*circuits.Split
+	hEMF  []float64
+	pkV   [nClass][]float64 // Σ over harmonics of the worst peak (rms magnitude)
+	pkL   [nClass][]float64
+	sqV   [nClass][]float64 // Σ of squares
+	sqI   [nClass][]float64
+	sumP  [nClass][]float64
+	nodeH [nClass][]float64
+	lim   []partLimits
+	acc   []accum
+	// limits per part at the current carrier
+}
+
+// partLimits caches one part's limits at the current carrier.
+type partLimits struct {
+	derated  [nQ]float64 // 0: no limit
+	absRatio [nQ]float64 // rating / derated limit (1/factor)
+	copperR  float64
+}
+
+func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
+	n := len(c.Elements)
+	w := &workspace{c: c, sw: circuits.NewSplitWork(c), carr: circuits.NewSplit(c),
+		lim: make([]partLimits, n), acc: make([]accum, n), hEMF: make([]float64, len(e.levels))}
+	for range e.levels {
+		w.harm = append(w.harm, circuits.NewSplit(c))
+	}
+	for k := 0; k < nClass; k++ {
+		w.pkV[k] = make([]float64, n)
+		w.pkL[k] = make([]float64, n)
+		w.sqV[k] = make([]float64, n)
+		w.sqI[k] = make([]float64, n)
+		w.sumP[k] = make([]float64, n)
+		w.nodeH[k] = make([]float64, len(c.Nodes))
+	}
+	return w
+}
+
+// rebind points a workspace at a tolerance trial's circuit (same shape).
+func (w *workspace) rebind(c *circuits.Circuit) {
+	w.c = c
+	w.sw.Rebind(c)
+}
+
+// nodeWorst is the worst node voltage of a run.
+type nodeWorst struct {
+	vpk  float64
+	node int
+	at   int
+}
+
+// run audits the workspace's circuit over every case into w.acc.
+func (e *Engine) run(w *workspace) (nodeWorst, error) {
+	c := w.c
+	for i := range w.acc {
+		w.acc[i].reset()
+	}
+	var nw nodeWorst
+	pep := e.Cond.PowerW
+	emf := c.EMFForPower(pep)
+	for i, l := range e.levels {
+		w.hEMF[i] = emf * math.Sqrt(l)
+	}
+	for fi, f := range e.carriers {
+		if err := w.sw.Fill(w.carr, f); err != nil {
+			return nw, err
+		}
+		for h := range e.levels {
+			if e.levels[h] == 0 {
+				continue
+			}
+			if err := w.sw.Fill(w.harm[h], float64(h+2)*f); err != nil {
+				return nw, err
+			}
+		}
+		e.harmonicSums(w)
+		e.fillLimits(w, f)
+		base := fi * e.perCarrier
+		// matched, explicit loads and faults: one evaluation each
+		e.evalCase(w, base, Matched, circuits.Load{Z: c.Zout}, f, &nw)
+		for j, z := range e.Cond.Loads {
+			e.evalCase(w, base+1+len(e.circle)+j, Explicit, circuits.Load{Z: z}, f, &nw)
+		}
+		for j, k := range e.faults {
+			l := circuits.OpenLoad
+			if k == FaultShort {
+				l = circuits.Short
+			}
+			e.evalCase(w, base+1+len(e.circle)+len(e.Cond.Loads)+j, k, l, f, &nw)
+		}
+		if len(e.circle) > 0 {
+			e.circleCases(w, base+1, f, &nw)
+		}
+	}
+	return nw, nil
+}
+
+// drive returns the carrier EMF and the factor on the harmonic sources
+// for weight α: the given available power, or, with delivered drive,
+// whatever EMF makes the network absorb the given power.
+func (e *Engine) drive(w *workspace, alpha complex128) (scale, k float64) {
+	emf := w.c.EMFForPower(e.Cond.PowerW)
+	if e.Cond.Drive != "delivered" {
+		return emf, 1
+	}
+	// never more than 1000× the available power: an open, lossless
+	// network would otherwise demand an unbounded EMF
+	maxScale := emf * math.Sqrt(1000)
+	scale = maxScale
+	if pin := w.carr.InputPower(alpha); pin > 0 {
+		scale = math.Min(math.Sqrt(e.Cond.PowerW/pin), maxScale)
+	}
+	return scale, scale / emf
+}
+
+// evalCase evaluates every part (and node) at one case.
+func (e *Engine) evalCase(w *workspace, ci int, kind CaseKind, l circuits.Load, f float64, nw *nodeWorst) {
+	alpha := w.carr.Alpha(l)
+	scale, k := e.drive(w, alpha)
+	cls := classOf(kind)
+	for i := range w.c.Elements {
+		e.evalPart(w, i, ci, kind, cls, alpha, scale, k, f)
+	}
+	e.evalNodes(w, ci, cls, alpha, scale, k, nw)
+}
+
+func (e *Engine) evalNodes(w *workspace, ci, cls int, alpha complex128, scale, k float64, nw *nodeWorst) {
+	s := w.carr
+	for ni := range s.Node[0] {
+		v := math.Sqrt2 * (cmplx.Abs(s.Node[0][ni]+alpha*s.Node[1][ni])*scale + k*w.nodeH[cls][ni])
+		if v > nw.vpk {
+			nw.vpk, nw.node, nw.at = v, ni, ci
+		}
+	}
+}
+
+// evalPart computes part i's stresses at one case and keeps the worst.
+// It allocates nothing: this is the inner loop of every audit and trial.
+func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha complex128, scale, k, f float64) {
+	s := w.carr
+	v := cmplx.Abs(s.V[0][i]+alpha*s.V[1][i]) * scale
+	cur := cmplx.Abs(s.I[0][i]+alpha*s.I[1][i]) * scale
+	avg := e.Cond.AvgRatio
+	var q [nQ]float64
+	var has [nQ]bool
+	q[qVpk] = math.Sqrt2 * (v + k*w.pkV[cls][i])
+	q[qVrms] = math.Sqrt(v*v + k*k*w.sqV[cls][i])
+	irms := math.Sqrt((cur*cur + k*k*w.sqI[cls][i]) * avg)
+	q[qIrms] = irms
+	q[qPdiss] = (s.R[i]*cur*cur + k*k*w.sumP[cls][i]) * avg
+	has[qVpk], has[qVrms], has[qIrms], has[qPdiss] = true, true, true, true
+	if rp := e.rparts[i]; rp != nil {
+		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
+			lam := cmplx.Abs(s.L[0][i]+alpha*s.L[1][i]) * scale
+			q[qBpk] = rp.FluxPeak(math.Sqrt2 * (lam + k*w.pkL[cls][i]))
+			has[qBpk] = true
+		}
+		// the winding's copper loss is a floor under the loss from Q
+		if cu := w.lim[i].copperR; cu > 0 {
+			if floor := irms * irms * cu; floor > q[qPdiss] {
+				q[qPdiss] = floor
+			}
+		}
+		if rp.Core != nil && rp.Area > 0 {
+			q[qTemp] = e.Cond.Ambient + rp.TempRise(q[qPdiss])
+			has[qTemp] = true
+		}
+		if j := rp.CurrentDensity(irms, f); j > 0 {
+			q[qJrms] = j
+			has[qJrms] = true
+		}
+	}
+	a := &w.acc[i]
+	a.kindSeen[kind] = true
+	lim := &w.lim[i]
+	for qi := 0; qi < nQ; qi++ {
+		if !has[qi] {
+			continue
+		}
+		a.has[qi] = true
+		if q[qi] > a.val[qi] {
+			a.val[qi], a.valCase[qi] = q[qi], ci
+		}
+		if a.kindCase[kind][qi] < 0 || q[qi] > a.kind[kind][qi] {
+			a.kind[kind][qi], a.kindCase[kind][qi] = q[qi], ci
+		}
+		if d := lim.derated[qi]; d > 0 {
+			if u := q[qi] / d; u > a.util[qi] {
+				a.util[qi], a.utilCase[qi] = u, ci
+			}
+		}
+	}
+}
+
+// circleCases finds each part's worst phases on the SWR circle without
+// visiting every phase. The load Z(θ) and the weight α = −Voc/(Zth+Z) are
+// bilinear (Möbius) maps of Γ = |Γ|e^{jθ}, so as θ goes round, α runs
+// once round a circle, and so does any part's phasor X0 + α·X1. Its
+// magnitude |c + r·e^{jφ}| has a single maximum in φ, and φ moves
+// monotonically with θ, so among the sampled phases the worst is one of
+// the two that bracket the continuous maximum. Each quantity of a part is a
+// rising function of |V|, |I| or |λ| (harmonic terms are fixed per case
+// class), so six evaluations per part find every worst value exactly as a
+// scan of all phases would. Delivered drive scales each case differently,
+// so it scans every phase.
+func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) {
+	s := w.carr
+	n := len(e.circle)
+	scan := func() {
+		for j, l := range e.circle {
+			e.evalCase(w, first+j, Circle, l, f, nw)
+		}
+	}
+	if e.Cond.Drive == "delivered" || n < 8 {
+		scan()
+		return
+	}
+	ca, ra, ok := e.alphaCircle(s)
+	if !ok {
+		scan()
+		return
+	}
+	scale, k := e.drive(w, 0)
+	visit := func(j int, i int) {
+		j = ((j % n) + n) % n
+		a := s.Alpha(e.circle[j])
+		e.evalPart(w, i, first+j, Circle, hNormal, a, scale, k, f)
+	}
+	for i := range w.c.Elements {
+		for _, x := range [3][2]complex128{{s.V[0][i], s.V[1][i]}, {s.I[0][i], s.I[1][i]}, {s.L[0][i], s.L[1][i]}} {
+			j := e.worstPhase(s, x[0], x[1], ca, ra)
+			visit(j, i)
+			visit(j+1, i)
+		}
+	}
+	for ni := range s.Node[0] {
+		j := e.worstPhase(s, s.Node[0][ni], s.Node[1][ni], ca, ra)
+		for _, jj := range []int{j, j + 1} {
+			jj = ((jj % n) + n) % n
+			a := s.Alpha(e.circle[jj])
+			e.evalNodes(w, first+jj, hNormal, a, scale, k, nw)
+		}
+	}
+}
+
+// alphaCircle fits the circle traced by α over the SWR circle through three
+// of its points.
+func (e *Engine) alphaCircle(s *circuits.Split) (complex128, float64, bool) {
+	z0 := e.C.Zout
+	var a [3]complex128
+	for k := 0; k < 3; k++ {
+		a[k] = s.Alpha(circuits.LoadOnCircle(z0, e.Cond.SWR, 2*math.Pi*float64(k)/3))
+	}
+	return circleThrough(a[0], a[1], a[2])
+}
+
+// circleThrough returns the circle through three points (circumcircle in
+// complex form: w = (z3−z1)/(z2−z1), c = (z2−z1)(w−|w|²)/(w−w̄) + z1).
+func circleThrough(z1, z2, z3 complex128) (complex128, float64, bool) {
+	d := z2 - z1
+	if cmplx.Abs(d) == 0 {
+		return 0, 0, false
+	}
+	wv := (z3 - z1) / d
+	im := imag(wv)
+	if math.Abs(im) < 1e-9*(cmplx.Abs(wv)+1) {
+		return 0, 0, false // collinear: the circle passes near the pole
+	}
+	ww := real(wv)*real(wv) + imag(wv)*imag(wv)
+	c := d*(wv-complex(ww, 0))/complex(0, 2*im) + z1
+	r := cmplx.Abs(z1 - c)
+	if math.IsNaN(r) || math.IsInf(r, 0) {
+		return 0, 0, false
+	}
+	return c, r, true
+}
+
+// worstPhase returns the sampled phase index at or just below the angle
+// where |x0 + α·x1| is largest on the α circle (centre ca, radius ra).
+func (e *Engine) worstPhase(s *circuits.Split, x0, x1, ca complex128, ra float64) int {
+	if x1 == 0 {
+		return 0
+	}
+	// |x0 + (ca + ra·u)·x1| is largest where ra·u·x1 points along x0 + ca·x1
+	m := x0 + ca*x1
+	var u complex128
+	if cmplx.Abs(m) == 0 {
+		u = 1
+	} else {
+		u = (m / x1) / complex(cmplx.Abs(m/x1), 0)
+	}
+	alpha := ca + complex(ra, 0)*u
+	if alpha == 0 {
+		return 0
+	}
+	z := -s.Voc/alpha - s.Zth
+	th := circuits.ReflectionAngle(e.C.Zout, z)
+	n := len(e.circle)
+	j := int(math.Floor(th / (2 * math.Pi) * float64(n)))
+	return j
+}
+
+// harmonicSums finds, per harmonic, part and quantity, the worst over the
+// harmonic load set of each class, and adds them as the combination rules
+// say: peaks add, RMS values add in squares, dissipation adds. On the SWR
+// circle the worst is that of the continuous circle (|c|+r on the α
+// circle), which no sampled phase exceeds.
+func (e *Engine) harmonicSums(w *workspace) {
+	c := w.c
+	for k := 0; k < nClass; k++ {
+		clear(w.pkV[k])
+		clear(w.pkL[k])
+		clear(w.sqV[k])
+		clear(w.sqI[k])
+		clear(w.sumP[k])
+		clear(w.nodeH[k])
+	}
+	for h, lvl := range e.levels {
+		if lvl == 0 {
+			continue
+		}
+		s := w.harm[h]
+		eh := w.hEMF[h]
+		for cls := 0; cls < nClass; cls++ {
+			var worst func(x0, x1 complex128) float64
+			switch {
+			case cls == hOpen:
+				worst = func(x0, x1 complex128) float64 { return cmplx.Abs(x0) }
+			case cls == hShort:
+				a := s.Alpha(circuits.Short)
+				worst = func(x0, x1 complex128) float64 { return cmplx.Abs(x0 + a*x1) }
+			case len(e.circle) == 0:
+				a := s.Alpha(circuits.Load{Z: c.Zout})
+				worst = func(x0, x1 complex128) float64 { return cmplx.Abs(x0 + a*x1) }
+			default:
+				if ca, ra, ok := e.alphaCircle(s); ok {
+					worst = func(x0, x1 complex128) float64 {
+						return cmplx.Abs(x0+ca*x1) + ra*cmplx.Abs(x1)
+					}
+				} else {
+					worst = func(x0, x1 complex128) float64 {
+						var m float64
+						for _, l := range e.circle {
+							if v := cmplx.Abs(x0 + s.Alpha(l)*x1); v > m {
+								m = v
+							}
+						}
+						return m
+					}
+				}
+			}
+			for i := range c.Elements {
+				mv := worst(s.V[0][i], s.V[1][i]) * eh
+				mi := worst(s.I[0][i], s.I[1][i]) * eh
+				ml := worst(s.L[0][i], s.L[1][i]) * eh
+				w.pkV[cls][i] += mv
+				w.pkL[cls][i] += ml
+				w.sqV[cls][i] += mv * mv
+				w.sqI[cls][i] += mi * mi
+				w.sumP[cls][i] += s.R[i] * mi * mi
+			}
+			for ni := range c.Nodes {
+				w.nodeH[cls][ni] += worst(s.Node[0][ni], s.Node[1][ni]) * eh
+			}
+		}
+	}
+}
+
+// fillLimits caches every part's derated limits at carrier f.
+func (e *Engine) fillLimits(w *workspace, f float64) {
+	for i := range w.c.Elements {
+		pl := &w.lim[i]
+		*pl = partLimits{}
+		rp := e.rparts[i]
+		if rp == nil {
+			continue
+		}
+		for _, l := range rp.Limits(f) {
+			if qi := qIndex(l.Quantity); qi >= 0 && l.Abs > 0 && l.Derated > 0 {
+				pl.derated[qi] = l.Derated
+				pl.absRatio[qi] = l.Abs / l.Derated
+			}
+		}
+		pl.copperR = rp.CopperR(f)
+	}
+}
+
+func qIndex(q ratings.Quantity) int {
+	for i, x := range Quantities {
+		if x == q {
+			return i
+		}
+	}
+	return -1
+}

@@ -1,0 +1,423 @@
+// Package stress runs the audit: it turns transmit conditions into cases
+// (carriers, harmonics, loads, faults), solves each through the circuits
+// layer, combines harmonics, keeps the worst stress of every part and asks
+// the ratings layer for limits, verdicts and the safe power.
+package stress
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+
+	"rfstress/circuits"
+)
+
+// Mode is a transmit mode preset: the ratio of average to PEP power.
+type Mode struct {
+	Name     string
+	AvgRatio float64
+	Note     string
+}
+
+// Modes are the presets. Voltage-type stress is taken at PEP, heating-type
+// stress at PEP × AvgRatio. Values are common practice, from memory, except
+// AM, which follows from the AM power relations.
+var Modes = []Mode{
+	{"carrier", 1.0, "key-down carrier: average equals PEP"},
+	{"data", 1.0, "constant-envelope data modes (FSK and the like): average equals PEP"},
+	{"fm", 1.0, "FM: constant envelope, average equals PEP"},
+	{"cw", 0.5, "CW keying: about half the time key-down (common practice, from memory)"},
+	{"am", 0.375, "AM with 100 % sine modulation: Pavg = Pc·(1+m²/2), PEP = Pc·(1+m)², ratio 3/8"},
+	{"ssb", 0.2, "SSB voice without heavy processing: average about 1/5 of PEP (common practice, from memory; 0.1 to 0.3)"},
+}
+
+// ModeByName finds a preset.
+func ModeByName(name string) (Mode, bool) {
+	for _, m := range Modes {
+		if m.Name == strings.ToLower(name) {
+			return m, true
+		}
+	}
+	return Mode{}, false
+}
+
+func modeNames() string {
+	var n []string
+	for _, m := range Modes {
+		n = append(n, m.Name)
+	}
+	return strings.Join(n, ", ")
+}
+
+// HarmonicPreset is a set of harmonic levels, dBc for the 2nd, 3rd, ….
+type HarmonicPreset struct {
+	Name string
+	DBc  []float64 // index 0 is the 2nd harmonic; NaN-free; -Inf never used, absent means none
+	Note string
+}
+
+// squareDBc is an ideal square wave: odd harmonics at 1/n amplitude, even
+// harmonics absent (Fourier series of a square wave); dBc = −20·log10 n.
+func squareDBc(max int) []float64 {
+	var d []float64
+	for n := 2; n <= max; n++ {
+		if n%2 == 0 {
+			d = append(d, math.Inf(-1))
+		} else {
+			d = append(d, -20*math.Log10(float64(n)))
+		}
+	}
+	return d
+}
+
+// HarmonicPresets. push-pull and single-ended are typical levels at the
+// output of a broadband HF amplifier before its lowpass filter (common
+// practice, from memory): push-pull cancels even orders, so the 3rd
+// dominates; a single-ended stage has a strong 2nd.
+var HarmonicPresets = []HarmonicPreset{
+	{"none", nil, "carrier only"},
+	{"push-pull", []float64{-30, -12, -35, -18, -40, -22, -45, -25}, "odd harmonics dominant: 3rd −12 dBc, 5th −18, 7th −22, 9th −25; even −30 to −45 dBc (common practice, from memory)"},
+	{"single-ended", []float64{-12, -18, -22, -25, -28, -30, -32, -35}, "even harmonics dominant: 2nd −12 dBc, 3rd −18, falling to −35 dBc at the 9th (common practice, from memory)"},
+	{"square", squareDBc(9), "ideal square wave: odd harmonics at 1/n amplitude (Fourier series), even absent"},
+}
+
+// DefaultHarmonics is the preset used when none is given: a push-pull
+// solid-state amplifier is the common HF case.
+const DefaultHarmonics = "push-pull"
+
+func harmonicByName(name string) (HarmonicPreset, bool) {
+	for _, h := range HarmonicPresets {
+		if h.Name == strings.ToLower(name) {
+			return h, true
+		}
+	}
+	return HarmonicPreset{}, false
+}
+
+// Conditions are the transmit conditions of an audit.
+type Conditions struct {
+	PowerW      float64
+	Mode        string
+	AvgRatio    float64
+	Drive       string // "available" or "delivered"
+	Harmonics   string // preset name or "custom"
+	HarmonicDBc []float64
+	HarmonicMax int
+	BandLo      float64
+	BandHi      float64
+	Points      int
+	SWR         float64
+	Phases      int
+	Loads       []complex128
+	Faults      []string
+	CarrierAlso []float64
+	Derate      string
+	Ambient     float64
+}
+
+// Defaults are the conditions before the file and the command line speak.
+func Defaults() Conditions {
+	h, _ := harmonicByName(DefaultHarmonics)
+	return Conditions{
+		PowerW: 100, Mode: "carrier", AvgRatio: 1, Drive: "available",
+		Harmonics: h.Name, HarmonicDBc: h.DBc, HarmonicMax: 9,
+		Points: 7, SWR: 1, Phases: 72, Derate: "standard", Ambient: 25,
+	}
+}
+
+// Setting is one condition as text, from a file's audit line or a flag.
+type Setting struct {
+	Key   string
+	Value string
+	Pos   circuits.Pos // zero for command-line flags
+	Flag  bool
+}
+
+func (s Setting) where() string {
+	if s.Flag {
+		return "--" + s.Key
+	}
+	return s.Pos.String() + ": audit " + s.Key + "="
+}
+
+// settingError carries the position of a bad setting.
+func settingError(s Setting, want, format string, args ...any) error {
+	msg := fmt.Sprintf(format, args...)
+	if s.Flag {
+		return fmt.Errorf("--%s %s: %s (%s)", s.Key, s.Value, msg, want)
+	}
+	return &circuits.Error{Pos: s.Pos, Msg: "audit " + s.Key + "=" + s.Value + ": " + msg, Want: want}
+}
+
+// FileSettings returns the audit settings written in a netlist, in order.
+func FileSettings(nl *circuits.Netlist) []Setting {
+	var out []Setting
+	for _, d := range nl.Audit {
+		for _, k := range d.Order {
+			a := d.Attrs[k]
+			out = append(out, Setting{Key: k, Value: a.Raw, Pos: a.ValPos})
+		}
+	}
+	return out
+}
+
+// Apply reads settings in order over c; a later setting wins, except for
+// list settings (load, carrier-also), where the file's lists add up and a
+// command-line list replaces them. Every bad setting is reported.
+func (c *Conditions) Apply(settings []Setting) error {
+	var errs []string
+	var cerrs circuits.ErrorList
+	flagSeen := map[string]bool{}
+	for _, s := range settings {
+		if err := c.apply(s, flagSeen); err != nil {
+			if ce, ok := err.(*circuits.Error); ok {
+				cerrs = append(cerrs, ce)
+			} else {
+				errs = append(errs, err.Error())
+			}
+		}
+	}
+	if c.Mode != "custom" {
+		if m, ok := ModeByName(c.Mode); ok && !c.avgSet() {
+			c.AvgRatio = m.AvgRatio
+		}
+	}
+	if len(cerrs) > 0 {
+		cerrs.Sort()
+		for _, e := range cerrs {
+			errs = append(errs, e.Error())
+		}
+	}
+	if len(errs) > 0 {
+		return fmt.Errorf("%s", strings.Join(errs, "\n"))
+	}
+	return nil
+}
+
+// avgExplicit records that avg-ratio was set directly and wins over mode.
+func (c *Conditions) avgSet() bool { return c.Mode == "custom" }
+
+func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
+	v := s.Value
+	num := func(units ...string) (float64, error) {
+		x, err := circuits.ParseValue(v, units...)
+		if err != nil {
+			return 0, settingError(s, "a number", "%v", err)
+		}
+		return x, nil
+	}
+	switch s.Key {
+	case "power":
+		x, err := num("W")
+		if err != nil {
+			return err
+		}
+		if !(x > 0) {
+			return settingError(s, "PEP in watts above zero", "power must be above zero")
+		}
+		c.PowerW = x
+	case "mode":
+		m, ok := ModeByName(v)
+		if !ok {
+			return settingError(s, "one of "+modeNames(), "unknown mode %q", v)
+		}
+		c.Mode, c.AvgRatio = m.Name, m.AvgRatio
+	case "avg-ratio":
+		x, err := num()
+		if err != nil {
+			return err
+		}
+		if !(x > 0 && x <= 1) {
+			return settingError(s, "0 < ratio ≤ 1", "average-to-PEP ratio out of range")
+		}
+		c.AvgRatio, c.Mode = x, "custom"
+	case "drive":
+		d := strings.ToLower(v)
+		if d != "available" && d != "delivered" {
+			return settingError(s, "available or delivered", "unknown drive %q", v)
+		}
+		c.Drive = d
+	case "harmonics":
+		if h, ok := harmonicByName(v); ok {
+			c.Harmonics, c.HarmonicDBc = h.Name, h.DBc
+			return nil
+		}
+		var d []float64
+		for _, part := range strings.Split(v, ",") {
+			x, err := strconv.ParseFloat(strings.TrimSuffix(strings.TrimSpace(part), "dBc"), 64)
+			if err != nil || math.IsNaN(x) || math.IsInf(x, 0) || x > 0 {
+				return settingError(s, "a preset (none, push-pull, single-ended, square) or dBc levels ≤ 0 for the 2nd, 3rd, … such as -30,-12,-40", "bad harmonic level %q", part)
+			}
+			d = append(d, x)
+		}
+		c.Harmonics, c.HarmonicDBc = "custom", d
+	case "harmonic-max":
+		n, err := strconv.Atoi(v)
+		if err != nil || n < 1 || n > 50 {
+			return settingError(s, "a whole number from 1 (carrier only) to 50", "bad highest harmonic %q", v)
+		}
+		c.HarmonicMax = n
+	case "band":
+		lo, hi, ok := strings.Cut(v, ":")
+		if !ok {
+			lo, hi = v, v
+		}
+		l, err1 := circuits.ParseValue(lo, "Hz")
+		h, err2 := circuits.ParseValue(hi, "Hz")
+		if err1 != nil || err2 != nil || !(l > 0) || h < l {
+			return settingError(s, "a band lo:hi such as 10.1M:10.15M", "bad band")
+		}
+		c.BandLo, c.BandHi = l, h
+	case "freq":
+		f, err := num("Hz")
+		if err != nil {
+			return err
+		}
+		if !(f > 0) {
+			return settingError(s, "a frequency above zero", "bad frequency")
+		}
+		c.BandLo, c.BandHi, c.Points = f, f, 1
+	case "points":
+		n, err := strconv.Atoi(v)
+		if err != nil || n < 1 || n > 100000 {
+			return settingError(s, "a whole number from 1 to 100000", "bad number of carrier points %q", v)
+		}
+		c.Points = n
+	case "swr":
+		x, err := num()
+		if err != nil {
+			return err
+		}
+		if !(x >= 1) || x > 1000 {
+			return settingError(s, "SWR from 1 to 1000", "bad SWR %q", v)
+		}
+		c.SWR = x
+	case "phases":
+		n, err := strconv.Atoi(v)
+		if err != nil || n < 1 || n > 1000000 {
+			return settingError(s, "a whole number from 1 to 1000000", "bad number of phases %q", v)
+		}
+		c.Phases = n
+	case "load":
+		if s.Flag && !flagSeen["load"] {
+			c.Loads = nil
+			flagSeen["load"] = true
+		}
+		for _, part := range strings.Split(v, ",") {
+			z, err := circuits.ParseComplex(part)
+			if err != nil || real(z) < 0 {
+				return settingError(s, "a passive impedance such as 12.5-j180", "bad load %q", part)
+			}
+			c.Loads = append(c.Loads, z)
+		}
+	case "faults":
+		var fl []string
+		for _, part := range strings.Split(v, ",") {
+			p := strings.ToLower(strings.TrimSpace(part))
+			switch p {
+			case "open", "short":
+				fl = append(fl, p)
+			case "none", "":
+			default:
+				return settingError(s, "open, short, open,short or none", "unknown fault %q", part)
+			}
+		}
+		sort.Strings(fl)
+		c.Faults = dedupe(fl)
+	case "carrier-also":
+		if s.Flag && !flagSeen["carrier-also"] {
+			c.CarrierAlso = nil
+			flagSeen["carrier-also"] = true
+		}
+		for _, part := range strings.Split(v, ",") {
+			f, err := circuits.ParseValue(part, "Hz")
+			if err != nil || !(f > 0) {
+				return settingError(s, "frequencies such as 14.2M", "bad frequency %q", part)
+			}
+			c.CarrierAlso = append(c.CarrierAlso, f)
+		}
+	case "derate":
+		c.Derate = v
+	case "ambient":
+		x, err := num("C")
+		if err != nil {
+			return err
+		}
+		if x < -60 || x > 200 {
+			return settingError(s, "an ambient temperature from −60 to 200 °C", "ambient out of range")
+		}
+		c.Ambient = x
+	default:
+		return settingError(s, "a known audit setting", "unknown setting %q", s.Key)
+	}
+	return nil
+}
+
+func dedupe(s []string) []string {
+	var out []string
+	for i, x := range s {
+		if i == 0 || x != s[i-1] {
+			out = append(out, x)
+		}
+	}
+	return out
+}
+
+// Check says what is missing before an audit can run.
+func (c *Conditions) Check() error {
+	if c.BandLo <= 0 {
+		return fmt.Errorf("no carrier band: give --band lo:hi (or --freq) or an `audit band=` line in the file")
+	}
+	return nil
+}
+
+// Carriers returns the carrier frequencies: the band points, then the
+// extra carriers.
+func (c *Conditions) Carriers() []float64 {
+	var fs []float64
+	n := c.Points
+	if c.BandHi == c.BandLo {
+		n = 1
+	}
+	for i := 0; i < n; i++ {
+		f := c.BandLo
+		if n > 1 {
+			f = c.BandLo + (c.BandHi-c.BandLo)*float64(i)/float64(n-1)
+		}
+		fs = append(fs, f)
+	}
+	return append(fs, c.CarrierAlso...)
+}
+
+// HarmonicLevels returns, for n = 2…HarmonicMax, the available power of
+// harmonic n as a fraction of the carrier's (0 when absent).
+func (c *Conditions) HarmonicLevels() []float64 {
+	var out []float64
+	for n := 2; n <= c.HarmonicMax; n++ {
+		i := n - 2
+		if i < len(c.HarmonicDBc) && !math.IsInf(c.HarmonicDBc[i], -1) {
+			out = append(out, math.Pow(10, c.HarmonicDBc[i]/10))
+		} else {
+			out = append(out, 0)
+		}
+	}
+	return out
+}
+
+// ModeNote returns the documented meaning of a mode preset.
+func ModeNote(name string) string {
+	if m, ok := ModeByName(name); ok {
+		return m.Note
+	}
+	return "average-to-PEP ratio set directly"
+}
+
+// HarmonicNote returns the documented meaning of a harmonic preset.
+func HarmonicNote(name string) string {
+	if h, ok := harmonicByName(name); ok {
+		return h.Note
+	}
+	return "levels given on the command line or in the file"
+}

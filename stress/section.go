@@ -1,0 +1,284 @@
+package stress
+
+import (
+	"math"
+	"sort"
+
+	"rfstress/circuits"
+	"rfstress/ratings"
+)
+
+// Audit runs every case of the engine on its own circuit and judges the
+// result.
+func (e *Engine) Audit() (*Section, error) {
+	w := e.newWorkspace(e.C)
+	nw, err := e.run(w)
+	if err != nil {
+		return nil, err
+	}
+	acc := w.acc
+	nl := e.C.NL
+	s := &Section{File: nl.File, Title: nl.Title, SHA256: nl.SHA256(), Netlist: nl, Conditions: e.Cond,
+		Engine: e, NumCases: e.NumCases(), MaxNodeVpk: nw.vpk, MaxNodeCase: nw.at, SafeW: math.Inf(1)}
+	if len(e.C.Nodes) > 0 {
+		s.MaxNodeAt = e.C.Nodes[nw.node]
+	}
+	if e.R != nil {
+		s.Findings = e.R.Findings
+		s.Profile = e.R.Profile
+	}
+	for i, el := range e.C.Elements {
+		s.Parts = append(s.Parts, e.judge(el, e.rparts[i], &acc[i]))
+	}
+	for _, p := range s.Parts {
+		if p.Verdict > s.Verdict && !(p.Verdict == ratings.Unrated && e.AllowUnrated) {
+			s.Verdict = p.Verdict
+		}
+		if p.SafeW < s.SafeW {
+			s.SafeW, s.LimitPart, s.LimitQ = p.SafeW, p.Name, p.Limiting
+		}
+	}
+	s.Harmonics = e.harmonicLines()
+	return s, nil
+}
+
+// judge turns one part's accumulated worst values into stresses, verdicts,
+// safe power and ratings to buy.
+func (e *Engine) judge(el circuits.Element, rp *ratings.Part, a *accum) *PartResult {
+	p := &PartResult{Name: el.Name, Kind: el.Kind, Value: el.Value, Stress: map[ratings.Quantity]*Stress{}, SafeW: math.Inf(1), Rating: rp}
+	if rp != nil {
+		p.Findings = rp.Findings
+	}
+	for k := CaseKind(0); k < nKind; k++ {
+		if !a.kindSeen[k] {
+			continue
+		}
+		kw := KindWorst{Kind: k, Value: map[ratings.Quantity]float64{}, Case: map[ratings.Quantity]int{}}
+		for qi, q := range Quantities {
+			if a.has[qi] && a.kindCase[k][qi] >= 0 {
+				kw.Value[q], kw.Case[q] = a.kind[k][qi], a.kindCase[k][qi]
+			}
+		}
+		p.ByKind = append(p.ByKind, kw)
+	}
+	pep := e.Cond.PowerW
+	for qi, q := range Quantities {
+		if !a.has[qi] {
+			continue
+		}
+		st := &Stress{Quantity: q, Value: a.val[qi], Case: a.valCase[qi], Util: a.util[qi], UtilCase: a.utilCase[qi], SafeW: math.Inf(1)}
+		p.Stress[q] = st
+		if rp == nil {
+			continue
+		}
+		lim, ok := limitFor(rp, q, e.Case(st.UtilCase).F)
+		if !ok {
+			continue // nobody rates this quantity for this kind: shown, not judged
+		}
+		if lim.Abs <= 0 {
+			// unrated: judge at the largest value, at that case's frequency
+			lim, _ = limitFor(rp, q, e.Case(st.Case).F)
+			st.Limit = lim
+			st.Verdict = ratings.Judge(st.Value, lim)
+		} else {
+			st.Limit = lim
+			at := st.Util * lim.Derated
+			st.Verdict = ratings.Judge(at, lim)
+			st.SafeW = safePower(q, pep, st.Util, e.Cond.Ambient, at, lim.Derated)
+		}
+		if st.Verdict != ratings.OK {
+			factor := st.Limit.Factor
+			if factor <= 0 {
+				factor = 1
+			}
+			st.Buy, st.BuyText = ratings.BuyRating(q, st.Value, factor)
+		}
+		if st.Verdict > p.Verdict {
+			p.Verdict = st.Verdict
+		}
+		if st.Util > p.Util {
+			p.Util = st.Util
+		}
+		if st.SafeW < p.SafeW {
+			p.SafeW, p.Limiting = st.SafeW, q
+		}
+	}
+	return p
+}
+
+func limitFor(rp *ratings.Part, q ratings.Quantity, f float64) (ratings.Limit, bool) {
+	for _, l := range rp.Limits(f) {
+		if l.Quantity == q {
+			return l, true
+		}
+	}
+	return ratings.Limit{}, false
+}
+
+// safePower is the PEP at which a quantity reaches its derated limit. The
+// network is linear: voltages, currents and flux grow with √P, dissipation
+// with P, and temperature rise with P^0.833 by the estimate used.
+func safePower(q ratings.Quantity, pep, util, ambient, temp, tlim float64) float64 {
+	if util <= 0 {
+		return math.Inf(1)
+	}
+	switch q {
+	case ratings.Pdiss:
+		return pep / util
+	case ratings.Temp:
+		rise, allowed := temp-ambient, tlim-ambient
+		if allowed <= 0 {
+			return 0
+		}
+		if rise <= 0 {
+			return math.Inf(1)
+		}
+		return pep * math.Pow(allowed/rise, 1/ratings.TempExponent)
+	}
+	return pep / (util * util)
+}
+
+// harmonicLines gives the filter's matched response at the harmonics of
+// the band centre, for the report.
+func (e *Engine) harmonicLines() []HarmonicLine {
+	fc := (e.Cond.BandLo + e.Cond.BandHi) / 2
+	var out []HarmonicLine
+	for n := 1; n <= e.Cond.HarmonicMax; n++ {
+		lvl := 0.0
+		if n > 1 {
+			lvl = math.Inf(-1)
+			if i := n - 2; i < len(e.Cond.HarmonicDBc) {
+				lvl = e.Cond.HarmonicDBc[i]
+			}
+		}
+		sp, err := e.C.TwoPort(float64(n) * fc)
+		if err != nil {
+			continue
+		}
+		out = append(out, HarmonicLine{N: n, F: float64(n) * fc, LevelDBc: lvl, S21dB: circuits.DB(sp.S21)})
+	}
+	return out
+}
+
+// SweepPoint is one frequency of a response plot.
+type SweepPoint struct {
+	F     float64
+	S21dB float64
+	S11dB float64
+}
+
+// Sweep gives the matched response from below the band to above the
+// highest harmonic audited, logarithmically spaced, for the report's plot.
+func (e *Engine) Sweep(n int) []SweepPoint {
+	lo := e.Cond.BandLo / 2
+	hi := e.Cond.BandHi * float64(e.Cond.HarmonicMax) * 1.15
+	for _, f := range e.Cond.CarrierAlso {
+		if f*float64(e.Cond.HarmonicMax)*1.15 > hi {
+			hi = f * float64(e.Cond.HarmonicMax) * 1.15
+		}
+		if f/2 < lo {
+			lo = f / 2
+		}
+	}
+	var out []SweepPoint
+	for i := 0; i < n; i++ {
+		f := lo * math.Pow(hi/lo, float64(i)/float64(n-1))
+		sp, err := e.C.TwoPort(f)
+		if err != nil {
+			continue
+		}
+		out = append(out, SweepPoint{F: f, S21dB: circuits.DB(sp.S21), S11dB: circuits.DB(sp.S11)})
+	}
+	return out
+}
+
+// Bank is several netlists audited together, one verdict for all.
+type Bank struct {
+	Sections  []*Section
+	Verdict   ratings.Verdict
+	SafeW     float64
+	LimitFile string
+	LimitPart string
+	LimitQ    ratings.Quantity
+}
+
+// NewBank gathers sections and finds the overall verdict and safe power.
+func NewBank(sections []*Section) *Bank {
+	b := &Bank{Sections: sections, SafeW: math.Inf(1)}
+	for _, s := range sections {
+		if s.Verdict > b.Verdict {
+			b.Verdict = s.Verdict
+		}
+		if s.SafeW < b.SafeW {
+			b.SafeW, b.LimitFile, b.LimitPart, b.LimitQ = s.SafeW, s.File, s.LimitPart, s.LimitQ
+		}
+	}
+	return b
+}
+
+// Upgrades lists every part and quantity that is not ok, worst first.
+func (s *Section) Upgrades() []Upgrade {
+	var out []Upgrade
+	for _, p := range s.Parts {
+		for _, q := range Quantities {
+			st, ok := p.Stress[q]
+			if !ok || st.Verdict == ratings.OK {
+				continue
+			}
+			out = append(out, Upgrade{Part: p.Name, Kind: p.Kind, Stress: st})
+		}
+	}
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Stress.Verdict > out[j].Stress.Verdict })
+	return out
+}
+
+// KindWorst is a part's worst values within one kind of case.
+type KindWorst struct {
+	Kind  CaseKind
+	Value map[ratings.Quantity]float64
+	Case  map[ratings.Quantity]int
+}
+
+// Upgrade is one rating to raise.
+type Upgrade struct {
+	Part   string
+	Kind   circuits.Kind
+	Stress *Stress
+}
+
+// Section is the audit of one netlist.
+type Section struct {
+	File        string
+	Title       string
+	SHA256      string
+	Netlist     *circuits.Netlist
+	Conditions  Conditions
+	Engine      *Engine
+	NumCases    int
+	Parts       []*PartResult
+	Verdict     ratings.Verdict
+	SafeW       float64
+	LimitPart   string
+	LimitQ      ratings.Quantity
+	MaxNodeVpk  float64 // largest node-to-ground peak voltage
+	MaxNodeAt   string  // node name
+	MaxNodeCase int
+	Findings    []ratings.Finding
+	Harmonics   []HarmonicLine
+	Profile     *ratings.Profile
+	Tolerance   *Tolerance
+}
+
+// Case returns case i of the section.
+func (s *Section) Case(i int) Case { return s.Engine.Case(i) }
+
+// Has reports whether the part has a stress of quantity q.
+func (p *PartResult) Has(q ratings.Quantity) bool { _, ok := p.Stress[q]; return ok }
+
+// HarmonicLine is the filter's attenuation at one harmonic of the band centre.
+type HarmonicLine struct {
+	N        int
+	F        float64
+	LevelDBc float64 // the amplifier's level (−Inf when absent)
+	S21dB    float64 // matched insertion gain of the filter at that frequency
+}
