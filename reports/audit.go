@@ -214,10 +214,14 @@ func writeSectionText(w io.Writer, s *stress.Section) {
 			fmt.Fprintf(w, "   %-8s %-8s %s %s — %s\n", u.Part, u.Stress.Verdict, QuantityLabel(u.Stress.Quantity), FormatQ(u.Stress.Quantity, u.Stress.Value), UpgradeText(u))
 		}
 	}
-	if len(s.Findings) > 0 {
+	if fs := AllFindings(s); len(fs) > 0 {
 		fmt.Fprintln(w, "\n   findings:")
-		for _, f := range s.Findings {
-			fmt.Fprintf(w, "   %s %s: %s\n", f.Part, f.Severity, f.Text)
+		for _, f := range fs {
+			name := f.Part
+			if name == "" {
+				name = "netlist"
+			}
+			fmt.Fprintf(w, "   %-8s %-8s %s\n", name, f.Severity, f.Text)
 		}
 	}
 	fmt.Fprintf(w, "\n   safe power %s", FormatPower(s.SafeW))
@@ -225,6 +229,16 @@ func writeSectionText(w io.Writer, s *stress.Section) {
 		fmt.Fprintf(w, " (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
 	}
 	fmt.Fprintf(w, "; highest node voltage %s peak at %s (%s)\n", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, s.Case(s.MaxNodeCase).Describe())
+}
+
+// AllFindings lists the section's findings and then each part's, in
+// netlist order.
+func AllFindings(s *stress.Section) []ratings.Finding {
+	out := append([]ratings.Finding(nil), s.Findings...)
+	for _, p := range s.Parts {
+		out = append(out, p.Findings...)
+	}
+	return out
 }
 
 // bindingText names the quantity closest to its limit and the case.

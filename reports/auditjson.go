@@ -231,26 +231,26 @@ func csvNum(v float64) string {
 
 // JSONTolerance is filled by the tolerance analysis.
 type JSONTolerance struct {
-	Trials       int                 `json:"trials"`
-	Seed         int64               `json:"seed"`
-	Distribution string              `json:"distribution"`
-	SafePowerP99 *float64            `json:"safe_power_w_p01"`
+	Trials       int                `json:"trials"`
+	Seed         int64              `json:"seed"`
+	Distribution string             `json:"distribution"`
+	SafePowerP99 *float64           `json:"safe_power_w_p01"`
 	Components   []JSONTolComponent `json:"components"`
 }
 
 // JSONTolComponent is one part's tolerance spread.
 type JSONTolComponent struct {
-	File       string                 `json:"file"`
-	Name       string                 `json:"name"`
-	Quantities []JSONTolQuantity      `json:"quantities"`
+	File       string            `json:"file"`
+	Name       string            `json:"name"`
+	Quantities []JSONTolQuantity `json:"quantities"`
 }
 
 // JSONTolQuantity is the spread of one stress over the trials.
 type JSONTolQuantity struct {
-	Quantity      string   `json:"quantity"`
-	Median        *float64 `json:"median"`
-	P99           *float64 `json:"p99"`
-	Max           *float64 `json:"max"`
-	OverDerated   float64  `json:"share_over_derated"`
-	OverRating    float64  `json:"share_over_rating"`
+	Quantity    string   `json:"quantity"`
+	Median      *float64 `json:"median"`
+	P99         *float64 `json:"p99"`
+	Max         *float64 `json:"max"`
+	OverDerated float64  `json:"share_over_derated"`
+	OverRating  float64  `json:"share_over_rating"`
 }

@@ -102,6 +102,7 @@ type Engine struct {
 	faults       []CaseKind
 	perCarrier   int
 	rparts       []*ratings.Part
+	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
 }
 
 // NewEngine prepares the case layout for c under cond.
@@ -132,6 +133,9 @@ func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, 
 			rp = rs.Parts[el.Name]
 		}
 		e.rparts = append(e.rparts, rp)
+	}
+	for _, f := range e.carriers {
+		e.lims = append(e.lims, e.limitsAt(f))
 	}
 	return e, nil
 }
@@ -296,7 +300,7 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 			}
 		}
 		e.harmonicSums(w)
-		e.fillLimits(w, f)
+		copy(w.lim, e.lims[fi])
 		base := fi * e.perCarrier
 		// matched, explicit loads and faults: one evaluation each
 		e.evalCase(w, base, Matched, circuits.Load{Z: c.Zout}, f, &nw)
@@ -588,15 +592,17 @@ func (e *Engine) harmonicSums(w *workspace) {
 	}
 }
 
-// fillLimits caches every part's derated limits at carrier f.
-func (e *Engine) fillLimits(w *workspace, f float64) {
-	for i := range w.c.Elements {
-		pl := &w.lim[i]
-		*pl = partLimits{}
+// limitsAt asks the ratings layer for every part's derated limits at
+// carrier f. Limits depend on the nominal parts only, so the engine asks
+// once per carrier and every tolerance trial reuses the answer.
+func (e *Engine) limitsAt(f float64) []partLimits {
+	out := make([]partLimits, len(e.C.Elements))
+	for i := range e.C.Elements {
 		rp := e.rparts[i]
 		if rp == nil {
 			continue
 		}
+		pl := &out[i]
 		for _, l := range rp.Limits(f) {
 			if qi := qIndex(l.Quantity); qi >= 0 && l.Abs > 0 && l.Derated > 0 {
 				pl.derated[qi] = l.Derated
@@ -605,6 +611,7 @@ func (e *Engine) fillLimits(w *workspace, f float64) {
 		}
 		pl.copperR = rp.CopperR(f)
 	}
+	return out
 }
 
 func qIndex(q ratings.Quantity) int {

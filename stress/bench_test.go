@@ -1,0 +1,141 @@
+package stress
+
+import (
+	"math"
+	"math/cmplx"
+	"os"
+	"testing"
+
+	"rfstress/circuits"
+)
+
+// benchSource is the demo station's 40 m lowpass when present, else the
+// test lowpass, so the benchmarks measure a realistic filter.
+func benchSource(b *testing.B) string {
+	if src, err := os.ReadFile("../testdata/station/lpf-40m.net"); err == nil {
+		return string(src)
+	}
+	return testLowpass("audit band=7.0M:7.3M swr=3 faults=open,short")
+}
+
+// default audit settings of the issue: 7 carriers × 72 phases, harmonics
+// to the 9th, open and short faults.
+var benchDefault = []string{"band=7.0M:7.3M", "points=7", "swr=3", "phases=72", "faults=open,short", "harmonics=push-pull", "harmonic-max=9"}
+
+func BenchmarkSolveOneFrequency(b *testing.B) {
+	fx := build(b, benchSource(b), benchDefault...)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := fx.c.Solve(7.1e6, 100, circuits.Load{Z: 50}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkFactor times one factorisation of the network matrix; compare
+// with BenchmarkScalarRate and the flop count (8/3)·n³ of a complex LU
+// (n³/3 complex multiply-adds of 8 real flops each).
+func BenchmarkFactor(b *testing.B) {
+	fx := build(b, benchSource(b), benchDefault...)
+	fz, err := fx.c.Factor(7.1e6, nil)
+	if err != nil {
+		b.Fatal(err)
+	}
+	n := fz.N()
+	for b.Loop() {
+		if err := fz.Refactor(7.1e6); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(8*math.Pow(float64(n), 3)/3, "flops/op")
+	b.ReportMetric(float64(n), "unknowns")
+}
+
+// BenchmarkScalarRate measures the machine's scalar floating-point rate:
+// four independent multiply-add chains, 8 flops per iteration.
+func BenchmarkScalarRate(b *testing.B) {
+	a0, a1, a2, a3 := 1.0, 1.1, 1.2, 1.3
+	const m, c = 0.999999, 1e-7
+	for b.Loop() {
+		a0 = a0*m + c
+		a1 = a1*m + c
+		a2 = a2*m + c
+		a3 = a3*m + c
+	}
+	b.ReportMetric(8, "flops/op")
+	if a0+a1+a2+a3 == 0 {
+		b.Fatal("unreachable")
+	}
+}
+
+func benchAudit(b *testing.B, settings ...string) {
+	fx := build(b, benchSource(b), settings...)
+	w := fx.eng.newWorkspace(fx.c)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := fx.eng.run(w); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(fx.eng.NumCases()), "cases")
+}
+
+func BenchmarkAuditDefault(b *testing.B) { benchAudit(b, benchDefault...) }
+
+func BenchmarkAuditPhases36(b *testing.B) {
+	benchAudit(b, append(append([]string{}, benchDefault...), "phases=36")...)
+}
+
+func BenchmarkAuditPhases3600(b *testing.B) {
+	benchAudit(b, append(append([]string{}, benchDefault...), "phases=3600")...)
+}
+
+// BenchmarkAuditNaive is the path the engine avoids, kept here only to
+// show the ratio: a full solve per case at the carrier, and at every
+// harmonic a full solve per load of the sampled circle.
+func BenchmarkAuditNaive(b *testing.B) {
+	fx := build(b, benchSource(b), benchDefault...)
+	e := fx.eng
+	n := len(fx.c.Elements)
+	worst := make([]float64, n)
+	for b.Loop() {
+		for fi, f := range e.carriers {
+			for h, lvl := range e.levels {
+				if lvl == 0 {
+					continue
+				}
+				for _, l := range e.circle {
+					r, err := fx.c.Solve(float64(h+2)*f, 100*lvl, l)
+					if err != nil {
+						b.Fatal(err)
+					}
+					for k, ps := range r.Parts {
+						worst[k] = math.Max(worst[k], cmplx.Abs(ps.V))
+					}
+				}
+			}
+			for j := 0; j < e.perCarrier; j++ {
+				cs := e.Case(fi*e.perCarrier + j)
+				r, err := fx.c.Solve(cs.F, 100, cs.Load)
+				if err != nil {
+					b.Fatal(err)
+				}
+				for k, ps := range r.Parts {
+					worst[k] = math.Max(worst[k], cmplx.Abs(ps.V))
+				}
+			}
+		}
+	}
+}
+
+func benchTolerance(b *testing.B, trials, workers int) {
+	fx := build(b, benchSource(b), benchDefault...)
+	for b.Loop() {
+		if _, err := fx.eng.Tolerance(TolOptions{Trials: trials, Seed: 1, Dist: "normal", Workers: workers}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkTolerance1000Workers1(b *testing.B) { benchTolerance(b, 1000, 1) }
+func BenchmarkTolerance1000Workers2(b *testing.B) { benchTolerance(b, 1000, 2) }
