@@ -224,6 +224,7 @@ func writeSectionText(w io.Writer, s *stress.Section) {
 			fmt.Fprintf(w, "   %-8s %-8s %s\n", name, f.Severity, f.Text)
 		}
 	}
+	writeTolText(w, s)
 	fmt.Fprintf(w, "\n   safe power %s", FormatPower(s.SafeW))
 	if !math.IsInf(s.SafeW, 1) {
 		fmt.Fprintf(w, " (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
@@ -273,4 +274,32 @@ func UpgradeText(u stress.Upgrade) string {
 		return "rate for at least " + FormatQ(st.Quantity, st.Buy)
 	}
 	return "reduce the stress"
+}
+
+func writeTolText(w io.Writer, s *stress.Section) {
+	t := s.Tolerance
+	if t == nil {
+		return
+	}
+	fmt.Fprintf(w, "\n   tolerance: %d trials, %s distribution, seed %d\n", t.Trials, t.Dist, t.Seed)
+	tb := newTable("part", "quantity", "median", "99th pct", "max", "> derated", "> rating")
+	for _, p := range t.Parts {
+		for _, q := range p.Q {
+			if !q.Rated {
+				continue // the text keeps to rated stresses; JSON and CSV have all
+			}
+			over, overR := "", ""
+			if q.Rated {
+				over, overR = pct1(q.OverDerated), pct1(q.OverRating)
+			}
+			tb.row(p.Name, QuantityLabel(q.Quantity), FormatQ(q.Quantity, q.Median), FormatQ(q.Quantity, q.P99), FormatQ(q.Quantity, q.Max), over, overR)
+		}
+	}
+	tb.write(w)
+	fmt.Fprintf(w, "   safe power met by 99 %% of trials %s (median %s)\n", FormatPower(t.SafeP01), FormatPower(t.SafeMed))
+}
+
+// pct1 renders a share with one decimal, so a rare excess shows.
+func pct1(v float64) string {
+	return strconv.FormatFloat(100*v, 'f', 1, 64) + " %"
 }

@@ -116,19 +116,20 @@ type JSONLimiting struct {
 
 // JSONSection summarises one netlist.
 type JSONSection struct {
-	File       string       `json:"file"`
-	Title      string       `json:"title"`
-	SHA256     string       `json:"sha256"`
-	Verdict    string       `json:"verdict"`
-	SafePowerW *float64     `json:"safe_power_w"`
-	Limiting   JSONLimiting `json:"limiting"`
-	Cases      int          `json:"cases"`
-	BandLoHz   float64      `json:"band_lo_hz"`
-	BandHiHz   float64      `json:"band_hi_hz"`
-	SWR        float64      `json:"swr"`
-	Harmonics  string       `json:"harmonics"`
-	MaxNodeVpk float64      `json:"max_node_vpk"`
-	Findings   []string     `json:"findings,omitempty"`
+	File       string         `json:"file"`
+	Title      string         `json:"title"`
+	SHA256     string         `json:"sha256"`
+	Verdict    string         `json:"verdict"`
+	SafePowerW *float64       `json:"safe_power_w"`
+	Limiting   JSONLimiting   `json:"limiting"`
+	Cases      int            `json:"cases"`
+	BandLoHz   float64        `json:"band_lo_hz"`
+	BandHiHz   float64        `json:"band_hi_hz"`
+	SWR        float64        `json:"swr"`
+	Harmonics  string         `json:"harmonics"`
+	MaxNodeVpk float64        `json:"max_node_vpk"`
+	Findings   []string       `json:"findings,omitempty"`
+	Tolerance  *JSONTolerance `json:"tolerance,omitempty"`
 }
 
 // JSONAudit is the whole audit document.
@@ -142,7 +143,6 @@ type JSONAudit struct {
 	Cases      int             `json:"cases"`
 	Sections   []JSONSection   `json:"sections"`
 	Components []JSONComponent `json:"components"`
-	Tolerance  *JSONTolerance  `json:"tolerance,omitempty"`
 }
 
 // AuditJSON builds the JSON document of a bank.
@@ -161,6 +161,7 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 		for _, f := range s.Findings {
 			js.Findings = append(js.Findings, f.Part+": "+f.Text)
 		}
+		js.Tolerance = tolJSON(s)
 		doc.Sections = append(doc.Sections, js)
 		for _, p := range s.Parts {
 			jc := JSONComponent{File: s.File, Name: p.Name, Kind: string(p.Kind), Value: p.Value, Verdict: p.Verdict.String(),
@@ -216,6 +217,7 @@ func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 				row = append(row, s.Case(k.Case[ratings.Vpk]).Describe(), s.Case(k.Case[ratings.Irms]).Describe(), p.Verdict.String(), csvNum(p.Util))
 				cw.Write(row)
 			}
+			writeTolCSV(cw, s, p)
 		}
 	}
 	cw.Flush()
@@ -232,10 +234,32 @@ func csvNum(v float64) string {
 // JSONTolerance is filled by the tolerance analysis.
 type JSONTolerance struct {
 	Trials       int                `json:"trials"`
-	Seed         int64              `json:"seed"`
+	Seed         uint64             `json:"seed"`
 	Distribution string             `json:"distribution"`
-	SafePowerP99 *float64           `json:"safe_power_w_p01"`
+	SafePowerP01 *float64           `json:"safe_power_w_99pct_of_trials"`
+	SafePowerMed *float64           `json:"safe_power_w_median"`
 	Components   []JSONTolComponent `json:"components"`
+}
+
+func tolJSON(s *stress.Section) *JSONTolerance {
+	t := s.Tolerance
+	if t == nil {
+		return nil
+	}
+	jt := &JSONTolerance{Trials: t.Trials, Seed: t.Seed, Distribution: t.Dist,
+		SafePowerP01: jsonNum(t.SafeP01), SafePowerMed: jsonNum(t.SafeMed)}
+	for _, p := range t.Parts {
+		jc := JSONTolComponent{File: s.File, Name: p.Name}
+		for _, q := range p.Q {
+			jq := JSONTolQuantity{Quantity: string(q.Quantity), Median: jsonNum(q.Median), P99: jsonNum(q.P99), Max: jsonNum(q.Max)}
+			if q.Rated {
+				jq.OverDerated, jq.OverRating = jsonNum(q.OverDerated), jsonNum(q.OverRating)
+			}
+			jc.Quantities = append(jc.Quantities, jq)
+		}
+		jt.Components = append(jt.Components, jc)
+	}
+	return jt
 }
 
 // JSONTolComponent is one part's tolerance spread.
@@ -251,6 +275,47 @@ type JSONTolQuantity struct {
 	Median      *float64 `json:"median"`
 	P99         *float64 `json:"p99"`
 	Max         *float64 `json:"max"`
-	OverDerated float64  `json:"share_over_derated"`
-	OverRating  float64  `json:"share_over_rating"`
+	OverDerated *float64 `json:"share_over_derated"`
+	OverRating  *float64 `json:"share_over_rating"`
+}
+
+// writeTolCSV adds the tolerance rows of a part: one row each for the
+// median, 99th percentile and maximum over the trials, and for the share of
+// trials above the derated limit and above the rating, in the quantity
+// columns.
+func writeTolCSV(cw *csv.Writer, s *stress.Section, p *stress.PartResult) {
+	if s.Tolerance == nil {
+		return
+	}
+	for _, tp := range s.Tolerance.Parts {
+		if tp.Name != p.Name {
+			continue
+		}
+		rows := []struct {
+			kind string
+			get  func(stress.TolQuantity) (float64, bool)
+		}{
+			{"trials-median", func(q stress.TolQuantity) (float64, bool) { return q.Median, true }},
+			{"trials-p99", func(q stress.TolQuantity) (float64, bool) { return q.P99, true }},
+			{"trials-max", func(q stress.TolQuantity) (float64, bool) { return q.Max, true }},
+			{"trials-share-over-derated", func(q stress.TolQuantity) (float64, bool) { return q.OverDerated, q.Rated }},
+			{"trials-share-over-rating", func(q stress.TolQuantity) (float64, bool) { return q.OverRating, q.Rated }},
+		}
+		for _, r := range rows {
+			row := []string{s.File, p.Name, string(p.Kind), r.kind}
+			for _, q := range stress.Quantities {
+				cell := ""
+				for _, tq := range tp.Q {
+					if tq.Quantity == q {
+						if v, ok := r.get(tq); ok {
+							cell = csvNum(v)
+						}
+					}
+				}
+				row = append(row, cell)
+			}
+			row = append(row, "", "", p.Verdict.String(), csvNum(p.Util))
+			cw.Write(row)
+		}
+	}
 }
