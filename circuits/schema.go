@@ -116,6 +116,7 @@ var Keywords = map[string]Keyword{
 		"drive":        {Type: TWord, Help: "available or delivered"},
 		"harmonics":    {Type: TText, Help: "a preset (none, push-pull, single-ended, square) or dBc values such as -30,-12,-40"},
 		"band":         {Type: TRange, Help: "carrier band such as 10.1M:10.15M"},
+		"freq":         {Type: TPositive, Units: []string{"Hz"}, Help: "a single carrier frequency such as 7.1M"},
 		"points":       {Type: TInt, Help: "carrier frequencies across the band"},
 		"swr":          {Type: TNumber, Help: "SWR of the load circle, ≥ 1"},
 		"phases":       {Type: TInt, Help: "loads around the SWR circle"},

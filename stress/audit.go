@@ -230,6 +230,7 @@ type workspace struct {
 	pkL   [nClass][]float64
 	sqV   [nClass][]float64 // Σ of squares
 	sqI   [nClass][]float64
+	sqIJ  [nClass][]float64 // Σ I² weighted by the wire's conducting area, carrier over harmonic
 	sumP  [nClass][]float64
 	nodeH [nClass][]float64
 	lim   []partLimits
@@ -239,9 +240,10 @@ type workspace struct {
 
 // partLimits caches one part's limits at the current carrier.
 type partLimits struct {
-	derated  [nQ]float64 // 0: no limit
-	absRatio [nQ]float64 // rating / derated limit (1/factor)
-	copperR  float64
+	derated   [nQ]float64 // 0: no limit
+	absRatio  [nQ]float64 // rating / derated limit (1/factor)
+	copperR   float64
+	areaRatio []float64 // per harmonic: wire conducting area at the carrier over that at the harmonic
 }
 
 func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
@@ -256,6 +258,7 @@ func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 		w.pkL[k] = make([]float64, n)
 		w.sqV[k] = make([]float64, n)
 		w.sqI[k] = make([]float64, n)
+		w.sqIJ[k] = make([]float64, n)
 		w.sumP[k] = make([]float64, n)
 		w.nodeH[k] = make([]float64, len(c.Nodes))
 	}
@@ -299,8 +302,8 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 				return nw, err
 			}
 		}
-		e.harmonicSums(w)
 		copy(w.lim, e.lims[fi])
+		e.harmonicSums(w)
 		base := fi * e.perCarrier
 		// matched, explicit loads and faults: one evaluation each
 		e.evalCase(w, base, Matched, circuits.Load{Z: c.Zout}, f, &nw)
@@ -391,7 +394,9 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 			q[qTemp] = e.Cond.Ambient + rp.TempRise(q[qPdiss])
 			has[qTemp] = true
 		}
-		if j := rp.CurrentDensity(irms, f); j > 0 {
+		// harmonic currents crowd into a thinner skin: weight each by the
+		// ratio of conducting areas, so the density heats as the sum does
+		if j := rp.CurrentDensity(math.Sqrt((cur*cur+k*k*w.sqIJ[cls][i])*avg), f); j > 0 {
 			q[qJrms] = j
 			has[qJrms] = true
 		}
@@ -538,6 +543,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 		clear(w.pkL[k])
 		clear(w.sqV[k])
 		clear(w.sqI[k])
+		clear(w.sqIJ[k])
 		clear(w.sumP[k])
 		clear(w.nodeH[k])
 	}
@@ -583,6 +589,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 				w.pkL[cls][i] += ml
 				w.sqV[cls][i] += mv * mv
 				w.sqI[cls][i] += mi * mi
+				w.sqIJ[cls][i] += mi * mi * w.lim[i].areaRatio[h]
 				w.sumP[cls][i] += s.R[i] * mi * mi
 			}
 			for ni := range c.Nodes {
@@ -599,10 +606,14 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 	out := make([]partLimits, len(e.C.Elements))
 	for i := range e.C.Elements {
 		rp := e.rparts[i]
+		pl := &out[i]
+		pl.areaRatio = make([]float64, len(e.levels))
+		for h := range pl.areaRatio {
+			pl.areaRatio[h] = 1
+		}
 		if rp == nil {
 			continue
 		}
-		pl := &out[i]
 		for _, l := range rp.Limits(f) {
 			if qi := qIndex(l.Quantity); qi >= 0 && l.Abs > 0 && l.Derated > 0 {
 				pl.derated[qi] = l.Derated
@@ -610,6 +621,15 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 			}
 		}
 		pl.copperR = rp.CopperR(f)
+		for h := range e.levels {
+			if rp.Wire > 0 {
+				a0 := ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper)
+				ah := ratings.ConductingArea(float64(h+2)*f, rp.Wire, ratings.Rho20Copper)
+				if a0 > 0 && ah > 0 {
+					pl.areaRatio[h] = a0 / ah
+				}
+			}
+		}
 	}
 	return out
 }

@@ -92,6 +92,14 @@ func (e *Engine) judge(el circuits.Element, rp *ratings.Part, a *accum) *PartRes
 				factor = 1
 			}
 			st.Buy, st.BuyText = ratings.BuyRating(q, st.Value, factor)
+			if q == ratings.Bpk || q == ratings.Temp || q == ratings.Jrms {
+				// concrete figures: core size, cooling surface, wire diameter
+				f := e.Case(st.Case).F
+				lim, _ := limitFor(rp, q, f)
+				if r := rp.Remedy(lim, st.Value, f, e.Cond.Ambient); r != "" {
+					st.BuyText = r
+				}
+			}
 		}
 		if st.Verdict > p.Verdict {
 			p.Verdict = st.Verdict

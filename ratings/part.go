@@ -1,0 +1,522 @@
+package ratings
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"rfstress/circuits"
+)
+
+// TempExponent is the exponent of the still-air temperature-rise rule for
+// small wound cores, ΔT[°C] ≈ (P[mW]/A[cm²])^0.833 (common practice in
+// magnetic-component literature).
+const TempExponent = 0.833
+
+// ALTolerance is how far AL·N² may stray from the netlist inductance
+// before it is worth a warning: wider than core AL tolerances of a few
+// percent plus winding spread (common practice).
+const ALTolerance = 0.10
+
+// Finding is something worth telling about a part (or the set) that is
+// not a limit: a doubtful choice or an inconsistent figure.
+type Finding struct {
+	Part     string // "" for findings about the netlist as a whole
+	Pos      circuits.Pos
+	Severity string // "warning" or "note"
+	Text     string
+}
+
+// Part is one component with its ratings read from the netlist.
+type Part struct {
+	Name       string
+	Kind       circuits.Kind
+	Pos        circuits.Pos
+	Value      float64 // F, H or Ω
+	Class      string  // derating class (ClassCapacitor1 …)
+	Dielectric string  // capacitors: lower-case dielectric word, "" if not given
+	Core       *CoreInfo
+	Turns      int
+	Wire       float64 // diameter, m; 0 if not given
+	Area       float64 // cooling surface of the wound part, m²; 0 if unknown
+	WireLength float64 // m; 0 if unknown
+	Findings   []Finding
+
+	vpk, vrms, pmax *circuits.Attr
+	irms            *circuits.Attr
+	prof            *Profile
+}
+
+// Set is every part of a netlist prepared for judging.
+type Set struct {
+	Parts     map[string]*Part
+	Order     []string // netlist order
+	Profile   *Profile
+	Materials map[string]*Material // built-in and file materials, netlist ones on top
+	Findings  []Finding            // about the netlist as a whole; part findings are on the parts
+}
+
+var dielectricClass = map[string]string{
+	"c0g": ClassCapacitor1, "np0": ClassCapacitor1, "mica": ClassCapacitor1, "porcelain": ClassCapacitor1,
+	"glass": ClassCapacitor1, "film": ClassCapacitor1,
+	"x7r": ClassCapacitor2, "x5r": ClassCapacitor2, "y5v": ClassCapacitor2, "z5u": ClassCapacitor2,
+	"air": ClassCapacitorAir, "vacuum": ClassCapacitorAir,
+}
+
+const dielectricWant = "one of c0g, np0, mica, porcelain, film, glass, air, vacuum, x7r, x5r, y5v, z5u"
+
+// Prepare reads the rating attributes of every part of nl. mats are the
+// materials to resolve core material= against (nil: Builtin()); the
+// netlist's own material statements are laid over them. prof nil means
+// the standard profile. Errors are a circuits.ErrorList holding all of
+// them, in file order; the Set is then nil.
+func Prepare(nl *circuits.Netlist, mats map[string]*Material, prof *Profile) (*Set, error) {
+	var errs circuits.ErrorList
+	if nl == nil {
+		return nil, circuits.ErrorList{{Msg: "no netlist to prepare", Want: "a parsed netlist"}}
+	}
+	if prof == nil {
+		prof = BuiltinProfile("standard")
+	}
+	if mats == nil {
+		mats = Builtin()
+	}
+	set := &Set{Parts: map[string]*Part{}, Profile: prof, Materials: map[string]*Material{}}
+	for k, m := range mats {
+		if m != nil {
+			set.Materials[k] = m
+		}
+	}
+	for _, s := range nl.Materials {
+		m := materialFrom(s, &errs)
+		if m == nil {
+			continue
+		}
+		if old := lookupMaterial(set.Materials, m.Name); old != nil {
+			from := "file"
+			if old.Builtin {
+				from = "built-in"
+			}
+			set.Findings = append(set.Findings, Finding{Pos: s.Pos, Severity: "note",
+				Text: fmt.Sprintf("material %s here replaces the %s material %s", m.Name, from, old.Name)})
+			delete(set.Materials, old.Name)
+		}
+		set.Materials[m.Name] = m
+	}
+	usedBy := map[string]string{}
+	for _, c := range nl.Components {
+		if c.Kind != circuits.Inductor {
+			continue
+		}
+		if w, ok := c.Attrs.Word("core"); ok {
+			if _, seen := usedBy[w]; !seen {
+				usedBy[w] = c.Name
+			}
+		}
+	}
+	cores := map[string]*CoreInfo{}
+	for _, s := range nl.Cores {
+		cores[s.Name] = buildCore(s, set.Materials, usedBy[s.Name], &errs)
+	}
+	for _, c := range nl.Components {
+		p := preparePart(c, cores, prof, &errs)
+		set.Parts[c.Name] = p
+		set.Order = append(set.Order, c.Name)
+	}
+	if len(errs) > 0 {
+		errs.Sort()
+		return nil, errs
+	}
+	return set, nil
+}
+
+func preparePart(c *circuits.Component, cores map[string]*CoreInfo, prof *Profile, errs *circuits.ErrorList) *Part {
+	p := &Part{Name: c.Name, Kind: c.Kind, Pos: c.Pos, Value: c.Value, prof: prof}
+	p.vpk, p.vrms, p.pmax, p.irms = c.Attrs["vpk"], c.Attrs["vrms"], c.Attrs["pmax"], c.Attrs["irms"]
+	switch c.Kind {
+	case circuits.Capacitor:
+		p.Class = ClassCapacitor
+		if a, ok := c.Attrs["dielectric"]; ok && len(a.Words) > 0 {
+			d := strings.ToLower(a.Words[0])
+			cl, known := dielectricClass[d]
+			if !known {
+				*errs = append(*errs, &circuits.Error{Pos: a.ValPos, Want: dielectricWant,
+					Msg: fmt.Sprintf("capacitor %s: unknown dielectric %q", c.Name, a.Words[0])})
+				break
+			}
+			p.Dielectric, p.Class = d, cl
+			if cl == ClassCapacitor2 {
+				p.warn("warning", "dielectric %s is class II: lossy, and its value drifts with temperature and voltage; common practice in RF filters is C0G/NP0, mica or porcelain", d)
+			}
+		}
+	case circuits.Inductor:
+		p.Class = ClassInductor
+		p.prepareWinding(c, cores)
+	case circuits.Resistor:
+		p.Class = ClassResistor
+	}
+	return p
+}
+
+func (p *Part) warn(sev, format string, args ...any) {
+	p.Findings = append(p.Findings, Finding{Part: p.Name, Pos: p.Pos, Severity: sev, Text: fmt.Sprintf(format, args...)})
+}
+
+func (p *Part) prepareWinding(c *circuits.Component, cores map[string]*CoreInfo) {
+	if n, ok := c.Attrs.Num("turns"); ok {
+		p.Turns = int(n)
+	}
+	if d, ok := c.Attrs.Num("wire"); ok {
+		p.Wire = d
+	}
+	if w, ok := c.Attrs.Word("core"); ok {
+		p.Core = cores[w] // an unknown name is the parser's error
+	}
+	if p.Core == nil {
+		return
+	}
+	k := p.Core
+	p.Area = k.WoundArea(p.Wire, !k.AreaEst && k.Area > 0)
+	if p.Turns > 0 && p.Wire > 0 {
+		p.WireLength = float64(p.Turns) * k.TurnLength(p.Wire)
+	}
+	if k.AL > 0 {
+		nFit := int(math.Max(1, math.Round(math.Sqrt(p.Value/k.AL))))
+		if p.Turns == 0 {
+			p.warn("note", "no turns= given: flux density is not checked; AL of core %s suggests %d turns for %s",
+				k.Name, nFit, circuits.FormatSI(p.Value, "H"))
+		} else {
+			lal := k.AL * float64(p.Turns*p.Turns)
+			if off := math.Abs(lal-p.Value) / p.Value; off > ALTolerance {
+				p.warn("warning", "AL·N² = %s with %d turns on core %s, but the netlist says %s (%.0f %% off); %d turns would give %s",
+					circuits.FormatSI(lal, "H"), p.Turns, k.Name, circuits.FormatSI(p.Value, "H"), off*100,
+					nFit, circuits.FormatSI(k.AL*float64(nFit*nFit), "H"))
+			}
+		}
+	}
+	if p.Wire > 0 && p.Turns > 0 && k.ID > 0 {
+		switch fit := OneLayerTurns(k.ID, p.Wire); {
+		case fit == 0:
+			p.warn("warning", "wire %s does not pass through the %s hole of core %s", mm(p.Wire), mm(k.ID), k.Name)
+		case p.Turns > fit:
+			p.warn("warning", "%d turns of %s wire need more than one layer on core %s (one layer holds %d): self-capacitance rises and the loss and heating figures are optimistic",
+				p.Turns, mm(p.Wire), k.Name, fit)
+		}
+	}
+	if a, ok := c.Attrs["q"]; ok && p.WireLength > 0 {
+		for _, pt := range a.Points {
+			if pt.F <= 0 {
+				continue
+			}
+			if qcu := p.CopperQ(pt.F); pt.V > qcu {
+				p.warn("note", "q=%s at %s is above what the copper alone allows (Q ≈ %.0f for %d turns of %s wire); the copper loss sets the floor",
+					trimNum(pt.V), circuits.FormatSI(pt.F, "Hz"), qcu, p.Turns, mm(p.Wire))
+				break
+			}
+		}
+	}
+}
+
+func mm(v float64) string { return fmt.Sprintf("%.3g mm", v*1e3) }
+
+// Limits gives the limit of every quantity that applies to the part at
+// carrier frequency f, Abs 0 for a stress that applies but has no rating:
+//
+//	capacitor: vpk, irms always; vrms and pdiss when rated
+//	inductor:  irms when rated or when no wire= is given; jrms with wire=;
+//	           bpk with a core, turns= and Ae, unless its material has no
+//	           flux limit (air); temp with a core of known surface, unless
+//	           its material is known and has no tmax (air)
+//	resistor:  pdiss, vpk
+func (p *Part) Limits(f float64) []Limit {
+	var out []Limit
+	given := func(q Quantity, a *circuits.Attr, class string) {
+		fac := p.prof.Factor(class, q)
+		if a == nil {
+			out = append(out, Limit{Quantity: q, Factor: fac, Basis: fmt.Sprintf("not rated: no %s= in netlist", attrName(q))})
+			return
+		}
+		out = append(out, Limit{Quantity: q, Abs: a.Num, Derated: a.Num * fac, Factor: fac,
+			Basis: fmt.Sprintf("%s=%s in netlist", a.Key, a.Raw)})
+	}
+	switch p.Kind {
+	case circuits.Capacitor:
+		given(Vpk, p.vpk, p.Class)
+		if p.vrms != nil {
+			given(Vrms, p.vrms, p.Class)
+		}
+		out = append(out, p.currentLimit(f, true))
+		if p.pmax != nil {
+			given(Pdiss, p.pmax, p.Class)
+		}
+	case circuits.Inductor:
+		if p.irms != nil || p.Wire == 0 {
+			out = append(out, p.currentLimit(f, false))
+		}
+		// A non-magnetic former has no flux limit, and no temperature
+		// limit unless its material gives tmax=.
+		m := (*Material)(nil)
+		if p.Core != nil {
+			m = p.Core.Material
+		}
+		if p.Core != nil && p.Turns > 0 && p.Core.Ae > 0 && (m == nil || len(m.Flux) > 0) {
+			out = append(out, p.fluxLimit(f))
+		}
+		if p.Core != nil && p.Area > 0 && (m == nil || m.Tmax > 0) {
+			out = append(out, p.tempLimit())
+		}
+		if p.Wire > 0 {
+			out = append(out, p.densityLimit(f))
+		}
+	case circuits.Resistor:
+		given(Pdiss, p.pmax, p.Class)
+		given(Vpk, p.vpk, p.Class)
+	}
+	return out
+}
+
+func attrName(q Quantity) string {
+	if q == Pdiss {
+		return "pmax"
+	}
+	return string(q)
+}
+
+// currentLimit reads irms= at f. A plain figure holds at every frequency.
+// Between rated points it is interpolated log-log. Outside them the rating
+// is carried by the loss mechanism that is worse in that direction, since
+// the heating I²·R is what the rating protects:
+//
+//	capacitor below the lowest point: dielectric loss with constant tan δ,
+//	  ESR ∝ 1/f, so I ∝ √(f/f0);
+//	capacitor above the highest point: electrode skin loss, ESR ∝ √f,
+//	  so I ∝ (f0/f)^¼;
+//	inductor below: loss only falls toward DC, rating held;
+//	inductor above: constant Q, R = ωL/Q ∝ f, so I ∝ √(f0/f).
+func (p *Part) currentLimit(f float64, capacitor bool) Limit {
+	fac := p.prof.Factor(p.Class, Irms)
+	l := Limit{Quantity: Irms, Factor: fac}
+	a := p.irms
+	if a == nil || len(a.Points) == 0 {
+		l.Basis = "not rated: no irms= in netlist"
+		return l
+	}
+	pts := a.Points
+	first, last := pts[0], pts[len(pts)-1]
+	var v float64
+	var how string
+	switch {
+	case len(pts) == 1 && first.F == 0:
+		v, how = first.V, "no frequency given, held at every frequency"
+	case f < first.F && capacitor:
+		v = first.V * math.Sqrt(f/first.F)
+		how = "below the rated frequency, scaled √(f/f0) for dielectric loss"
+	case f < first.F:
+		v, how = first.V, "below the rated frequency, held"
+	case f > last.F && capacitor:
+		v = last.V * math.Pow(last.F/f, 0.25)
+		how = "above the rated frequency, scaled (f0/f)^¼ for skin loss"
+	case f > last.F:
+		v = last.V * math.Sqrt(last.F/f)
+		how = "above the rated frequency, scaled √(f0/f) for constant Q"
+	default:
+		v, how = circuits.InterpLogLog(pts, f), "interpolated"
+	}
+	l.Abs, l.Derated = v, v*fac
+	l.Basis = fmt.Sprintf("irms=%s in netlist; at %s %s", a.Raw, circuits.FormatSI(f, "Hz"), how)
+	return l
+}
+
+func (p *Part) fluxLimit(f float64) Limit {
+	fac := p.prof.Factor(ClassCore, Bpk)
+	l := Limit{Quantity: Bpk, Factor: fac}
+	m := p.Core.Material
+	switch {
+	case m == nil:
+		l.Basis = fmt.Sprintf("not rated: core %s names no material= with a flux guide", p.Core.Name)
+	case len(m.Flux) == 0:
+		l.Basis = fmt.Sprintf("not rated: material %s has no flux guide", m.Name)
+	default:
+		g := m.GuideFlux(f)
+		l.Abs, l.Derated = g, g*fac
+		l.Basis = fmt.Sprintf("guide flux, %s, at %s", m.Describe(), circuits.FormatSI(f, "Hz"))
+		if m.FluxFromClass {
+			l.Basis += fmt.Sprintf(" (material %s gave no flux=: the %s class guide)", m.Name, m.Class)
+		}
+	}
+	return l
+}
+
+func (p *Part) tempLimit() Limit {
+	l := Limit{Quantity: Temp}
+	m := p.Core.Material
+	if m == nil || m.Tmax <= 0 {
+		l.Basis = fmt.Sprintf("not rated: core %s has no material with tmax", p.Core.Name)
+		return l
+	}
+	margin, name := 0.0, "no"
+	if p.prof != nil {
+		margin, name = p.prof.TempMargin, p.prof.Name
+	}
+	l.Abs, l.Derated = m.Tmax, m.Tmax-margin
+	l.Factor = l.Derated / l.Abs
+	l.Basis = fmt.Sprintf("tmax %.0f °C of %s, less %.0f °C margin (%s profile)", m.Tmax, m.Describe(), margin, name)
+	return l
+}
+
+func (p *Part) densityLimit(f float64) Limit {
+	fac := p.prof.Factor(ClassInductor, Jrms)
+	j := DensityLimit(f, p.Wire, Rho20Copper)
+	return Limit{Quantity: Jrms, Abs: j, Derated: j * fac, Factor: fac,
+		Basis: fmt.Sprintf("wire surface loss %.2g W/cm² in still air (from memory): %s wire at %s conducts on %.3g mm²",
+			WireHeatFlux*1e-4, mm(p.Wire), circuits.FormatSI(f, "Hz"), ConductingArea(f, p.Wire, Rho20Copper)*1e6)}
+}
+
+// TempRise is the temperature rise in °C of the wound core dissipating
+// pdiss watts in still air: ΔT ≈ (P[mW]/A[cm²])^0.833 (common practice).
+// 0 when the part has no core or no known surface. The Temp stress to
+// judge is ambient + TempRise(total dissipation).
+func (p *Part) TempRise(pdiss float64) float64 {
+	if p.Area <= 0 || !(pdiss > 0) {
+		return 0
+	}
+	return math.Pow(pdiss*1e3/(p.Area*1e4), TempExponent)
+}
+
+// CopperR is the AC resistance of the winding at f: annealed copper at
+// 20 °C (IEC 60028) over WireLength, times the IEC 60287 skin factor. It
+// is a floor for the winding's loss resistance (hot copper and proximity
+// only add). 0 when wire, turns or core geometry is unknown.
+func (p *Part) CopperR(f float64) float64 {
+	if p.WireLength <= 0 || p.Wire <= 0 {
+		return 0
+	}
+	rdc := Rho20Copper * p.WireLength / (math.Pi * p.Wire * p.Wire / 4)
+	return rdc * SkinFactor(f, p.Wire, Rho20Copper)
+}
+
+// CopperQ is the highest Q the winding's copper allows at f, ωL/CopperR;
+// +Inf when CopperR is unknown.
+func (p *Part) CopperQ(f float64) float64 {
+	r := p.CopperR(f)
+	if r <= 0 {
+		return math.Inf(1)
+	}
+	return 2 * math.Pi * f * p.Value / r
+}
+
+// FluxPeak is the peak flux density in T for a peak flux linkage lambdaPk
+// (V·s, i.e. √2·|λ| of an RMS phasor, harmonics added by the caller):
+// B = λ/(N·Ae). 0 without turns or Ae.
+func (p *Part) FluxPeak(lambdaPk float64) float64 {
+	if p.Core == nil || p.Turns <= 0 || p.Core.Ae <= 0 {
+		return 0
+	}
+	return lambdaPk / (float64(p.Turns) * p.Core.Ae)
+}
+
+// CurrentDensity is the RMS current density on the wire's conducting area
+// at f, A/m²; 0 without wire=.
+func (p *Part) CurrentDensity(irms, f float64) float64 {
+	a := ConductingArea(f, p.Wire, Rho20Copper)
+	if a <= 0 {
+		return 0
+	}
+	return irms / a
+}
+
+// HeatingDensity folds currents at several frequencies into the density
+// at f0 that heats the wire as much: Σ I_k²·ρ/A(f_k) = J²·A(f0)·ρ, so
+// J = sqrt(Σ I_k²/A(f_k) / A(f0)). Compare it with the Jrms limit at f0.
+func (p *Part) HeatingDensity(f0 float64, irms, freqs []float64) float64 {
+	a0 := ConductingArea(f0, p.Wire, Rho20Copper)
+	if a0 <= 0 {
+		return 0
+	}
+	var s float64
+	for i := range irms {
+		if i >= len(freqs) {
+			break
+		}
+		if a := ConductingArea(freqs[i], p.Wire, Rho20Copper); a > 0 {
+			s += irms[i] * irms[i] / a
+		}
+	}
+	return math.Sqrt(s / a0)
+}
+
+// Remedy says what would bring stress within the derated limit l (as
+// returned by Limits at f): a rating to buy, or for flux, temperature and
+// current density the change in figures. ambient (°C) is used for Temp
+// only. "" when the stress is already within the limit.
+func (p *Part) Remedy(l Limit, stress, f, ambient float64) string {
+	if l.Abs > 0 && stress <= l.Derated {
+		return ""
+	}
+	switch l.Quantity {
+	case Bpk:
+		if l.Derated <= 0 || p.Core == nil {
+			break
+		}
+		// at fixed L and I, B = I·sqrt(L·µ0·µ/(Ae·le)): scale µ/(Ae·le) by r⁻²
+		r := stress / l.Derated
+		k := p.Core
+		v := k.Ae * k.Le
+		s := fmt.Sprintf("at the same inductance: a core with Ae·le ≥ %.3g mm³ (this one %.3g mm³)", v*r*r*1e9, v*1e9)
+		if k.Mu > 0 {
+			s += fmt.Sprintf(", or permeability ≤ %.3g (this one %.3g)", k.Mu/(r*r), k.Mu)
+		}
+		return s
+	case Temp:
+		if l.Abs <= 0 {
+			return "name a core material with tmax= to rate the temperature"
+		}
+		allowed, rise := l.Derated-ambient, stress-ambient
+		need := fmt.Sprintf("a material rated ≥ %.0f °C", stress+(l.Abs-l.Derated))
+		if allowed <= 0 || rise <= 0 || p.Area <= 0 {
+			return need
+		}
+		a := p.Area * math.Pow(rise/allowed, 1/TempExponent)
+		return fmt.Sprintf("cooling surface ≥ %.3g cm² (now %.3g cm²), less loss, or %s", a*1e4, p.Area*1e4, need)
+	case Jrms:
+		if p.Wire <= 0 || l.Factor <= 0 {
+			break
+		}
+		i := stress * ConductingArea(f, p.Wire, Rho20Copper)
+		carry := func(d float64) float64 {
+			return l.Factor * DensityLimit(f, d, Rho20Copper) * ConductingArea(f, d, Rho20Copper)
+		}
+		lo, hi := p.Wire, p.Wire
+		for carry(hi) < i && hi < 1 {
+			hi *= 2
+		}
+		if carry(hi) < i {
+			return "more than 1 m of copper diameter: split the current"
+		}
+		for n := 0; n < 60; n++ {
+			mid := (lo + hi) / 2
+			if carry(mid) >= i {
+				hi = mid
+			} else {
+				lo = mid
+			}
+		}
+		d := math.Ceil(hi*1e3/0.05-1e-9) * 0.05 // to the next 0.05 mm
+		return fmt.Sprintf("wire ≥ %.2f mm", d)
+	}
+	_, text := BuyRating(l.Quantity, stress, l.Factor)
+	return text
+}
+
+// AllFindings returns the findings of every part and of the netlist as a
+// whole, in line order.
+func (s *Set) AllFindings() []Finding {
+	var out []Finding
+	for _, n := range s.Order {
+		out = append(out, s.Parts[n].Findings...)
+	}
+	out = append(out, s.Findings...)
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Pos.Line < out[j].Pos.Line })
+	return out
+}
