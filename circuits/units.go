@@ -55,8 +55,8 @@ func ParseValue(s string, want ...string) (float64, error) {
 	// A bare unit ("50ohm", "1F") or a prefix followed by a unit or nothing.
 	for _, u := range units {
 		if rest == u {
-			if u == "m" && !unitAllowed("m", want) {
-				break // "m" alone is milli unless metres are wanted
+			if u == "m" && (len(want) == 0 || !unitAllowed("m", want)) {
+				break // "m" alone is milli unless metres are asked for
 			}
 			if !unitAllowed(u, want) {
 				return 0, fmt.Errorf("unit %s does not fit here (%s)", u, wantText(want))
@@ -162,7 +162,7 @@ func ParseComplex(s string) (complex128, error) {
 		}
 	}
 	if jpos < 0 {
-		v, err := ParseValue(t)
+		v, err := ParseValue(t, "ohm")
 		if err != nil {
 			return 0, err
 		}
@@ -178,7 +178,7 @@ func ParseComplex(s string) (complex128, error) {
 	}
 	var re float64
 	if realPart != "" {
-		v, err := ParseValue(realPart)
+		v, err := ParseValue(realPart, "ohm")
 		if err != nil {
 			return 0, err
 		}
@@ -188,7 +188,7 @@ func ParseComplex(s string) (complex128, error) {
 	if imText == "" || imText[0] == '-' || imText[0] == '+' {
 		return 0, fmt.Errorf("%q: expected a number after j, as in 12.5-j180", s)
 	}
-	im, err := ParseValue(imText)
+	im, err := ParseValue(imText, "ohm")
 	if err != nil {
 		return 0, err
 	}
@@ -251,4 +251,24 @@ func trimFloat(v float64) string {
 		return "—"
 	}
 	return strconv.FormatFloat(v, 'g', 4, 64)
+}
+
+// FormatHz renders a frequency with up to six significant figures and no
+// trailing zeros: 10.15 MHz stays 10.15 MHz (three figures would show a
+// band edge as its neighbour).
+func FormatHz(f float64) string {
+	if math.IsNaN(f) || math.IsInf(f, 0) {
+		return "—"
+	}
+	p, unit := 1.0, "Hz"
+	switch a := math.Abs(f); {
+	case a >= 1e9:
+		p, unit = 1e9, "GHz"
+	case a >= 1e6:
+		p, unit = 1e6, "MHz"
+	case a >= 1e3:
+		p, unit = 1e3, "kHz"
+	}
+	x, _ := strconv.ParseFloat(strconv.FormatFloat(f/p, 'g', 6, 64), 64)
+	return strconv.FormatFloat(x, 'f', -1, 64) + " " + unit
 }

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 	"strings"
 
 	"rfstress/circuits"
@@ -463,7 +464,7 @@ func (p *Part) Remedy(l Limit, stress, f, ambient float64) string {
 		r := stress / l.Derated
 		k := p.Core
 		v := k.Ae * k.Le
-		s := fmt.Sprintf("at the same inductance: a core with Ae·le ≥ %.3g mm³ (this one %.3g mm³)", v*r*r*1e9, v*1e9)
+		s := fmt.Sprintf("at the same inductance: a core with Ae·le ≥ %s (this one %s)", volume(v*r*r), volume(v))
 		if k.Mu > 0 {
 			s += fmt.Sprintf(", or permeability ≤ %.3g (this one %.3g)", k.Mu/(r*r), k.Mu)
 		}
@@ -519,4 +520,14 @@ func (s *Set) AllFindings() []Finding {
 	out = append(out, s.Findings...)
 	sort.SliceStable(out, func(i, j int) bool { return out[i].Pos.Line < out[j].Pos.Line })
 	return out
+}
+
+// volume renders a core's Ae·le in mm³, or cm³ from 1000 mm³ up, without
+// exponents.
+func volume(v float64) string {
+	mm3 := v * 1e9
+	if mm3 >= 1000 {
+		return strconv.FormatFloat(roundSig(mm3/1000, 3), 'f', -1, 64) + " cm³"
+	}
+	return strconv.FormatFloat(roundSig(mm3, 3), 'f', -1, 64) + " mm³"
 }

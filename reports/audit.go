@@ -99,14 +99,14 @@ func ConditionsText(c stress.Conditions) []string {
 	}
 	lines = append(lines, fmt.Sprintf("power %s PEP, mode %s (average %s of PEP), drive %s",
 		strings.TrimSuffix(si(c.PowerW, "W"), ""), mode, pct(c.AvgRatio), c.Drive))
-	band := si(c.BandLo, "Hz")
+	band := circuits.FormatHz(c.BandLo)
 	if c.BandHi > c.BandLo {
-		band = fmt.Sprintf("%s to %s, %d carriers", si(c.BandLo, "Hz"), si(c.BandHi, "Hz"), c.Points)
+		band = fmt.Sprintf("%s to %s, %d carriers", circuits.FormatHz(c.BandLo), circuits.FormatHz(c.BandHi), c.Points)
 	}
 	if len(c.CarrierAlso) > 0 {
 		var also []string
 		for _, f := range c.CarrierAlso {
-			also = append(also, si(f, "Hz"))
+			also = append(also, circuits.FormatHz(f))
 		}
 		band += "; also " + strings.Join(also, ", ") + " (outside the band)"
 	}

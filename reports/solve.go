@@ -60,7 +60,7 @@ func WriteSolveText(w io.Writer, v *SolveView) error {
 	si := circuits.FormatSI
 	fmt.Fprintf(w, "%s\n", heading(v.File, v.Title))
 	fmt.Fprintf(w, "  carrier %s, %s available from the transmitter, antenna port load %s\n\n",
-		si(v.FrequencyHz, "Hz"), si(v.PowerW, "W"), v.Load)
+		circuits.FormatHz(v.FrequencyHz), si(v.PowerW, "W"), v.Load)
 	t := newTable("part", "kind", "V rms", "V peak", "I rms", "dissipation")
 	for _, p := range v.Components {
 		t.row(p.Name, p.Kind, si(p.Vrms, "V"), si(p.Vpk, "V"), si(p.Irms, "A"), si(p.Pdiss, "W"))

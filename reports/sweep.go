@@ -41,7 +41,7 @@ func WriteSweepText(w io.Writer, v *SweepView) error {
 	t := newTable("frequency", "insertion loss", "return loss", "S21 phase")
 	t.leftCols = 1
 	for _, p := range v.Points {
-		t.row(circuits.FormatSI(p.F, "Hz"), num(-circuits.DB(p.S21), 2)+" dB", num(-circuits.DB(p.S11), 2)+" dB", num(circuits.PhaseDeg(p.S21), 1)+"°")
+		t.row(circuits.FormatHz(p.F), num(-circuits.DB(p.S21), 2)+" dB", num(-circuits.DB(p.S11), 2)+" dB", num(circuits.PhaseDeg(p.S21), 1)+"°")
 	}
 	t.write(w)
 	return nil

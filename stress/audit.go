@@ -40,7 +40,7 @@ type Case struct {
 
 // Describe renders the case for people.
 func (c Case) Describe() string {
-	f := circuits.FormatSI(c.F, "Hz")
+	f := circuits.FormatHz(c.F)
 	if c.OffBand {
 		f += " (outside the band)"
 	}

@@ -187,7 +187,7 @@ func runResponse(args []string, stdout, stderr io.Writer) (int, error) {
 		wrote = true
 	}
 	if wrote {
-		fmt.Fprintf(stdout, "%s: %d frequencies from %s to %s written\n", file, len(v.Points), circuits.FormatSI(f1, "Hz"), circuits.FormatSI(f2, "Hz"))
+		fmt.Fprintf(stdout, "%s: %d frequencies from %s to %s written\n", file, len(v.Points), circuits.FormatHz(f1), circuits.FormatHz(f2))
 		return exitOK, nil
 	}
 	return exitOK, reports.WriteSweepText(stdout, v)
