@@ -374,3 +374,37 @@ func TestToleranceDeterministic(t *testing.T) {
 		t.Errorf("no spread in %s: median %g max %g", a.Parts[0].Name, q.Median, q.Max)
 	}
 }
+
+// Delivered drive scales each case so that the network takes exactly the
+// given power (Tellegen: source power = load power + dissipation), whatever
+// the load; with a matched, nearly lossless filter it is the same as
+// available drive.
+func TestDeliveredDrive(t *testing.T) {
+	src := testLowpass("")
+	fx := build(t, src, "freq=7.1M", "harmonics=none", "drive=delivered", "swr=3", "phases=24", "mode=carrier")
+	w := fx.eng.newWorkspace(fx.c)
+	if err := w.sw.Fill(w.carr, 7.1e6); err != nil {
+		t.Fatal(err)
+	}
+	for k := 0; k < 24; k++ {
+		l := circuits.LoadOnCircle(fx.c.Zout, 3, 2*math.Pi*float64(k)/24)
+		a := w.carr.Alpha(l)
+		scale, _ := fx.eng.drive(w, a)
+		r := fullSolve(t, fx.c, 7.1e6, 1, l) // 1 W available, then scale
+		emf1 := fx.c.EMFForPower(1)
+		pin := r.Pin * (scale / emf1) * (scale / emf1)
+		if math.Abs(pin-100) > 1e-6 {
+			t.Errorf("phase %d: network takes %.6f W, want 100 W", k, pin)
+		}
+	}
+	avail := build(t, src, "freq=7.1M", "harmonics=none", "mode=carrier")
+	deliv := build(t, src, "freq=7.1M", "harmonics=none", "mode=carrier", "drive=delivered")
+	sa, _ := avail.eng.Audit()
+	sd, _ := deliv.eng.Audit()
+	for i := range sa.Parts {
+		r := sd.Parts[i].Stress[ratings.Vpk].Value / sa.Parts[i].Stress[ratings.Vpk].Value
+		if r < 1 || r > 1.01 {
+			t.Errorf("%s: delivered/available voltage ratio %.4f into a matched load, want just above 1", sa.Parts[i].Name, r)
+		}
+	}
+}

@@ -197,3 +197,25 @@ func TestRefusesToOverwriteInput(t *testing.T) {
 		t.Error("input file was changed")
 	}
 }
+
+// The progress bar is for terminals only: redirected stderr stays clean,
+// and the tolerance table reaches every output.
+func TestToleranceOutputs(t *testing.T) {
+	src := strings.ReplaceAll(verdictNet, "irms=10", "irms=10 tol=5%")
+	f := writeFile(t, "t.net", src)
+	code, out, errs := runCLI(t, "audit", f, "--trials", "200", "--seed", "3")
+	if errs != "" {
+		t.Errorf("stderr not empty when not a terminal: %q", errs)
+	}
+	if code != 1 || !strings.Contains(out, "tolerance: 200 trials") || !strings.Contains(out, "99 % of trials") {
+		t.Errorf("exit %d; text lacks the tolerance table:\n%s", code, out)
+	}
+	_, js, _ := runCLI(t, "audit", f, "--trials", "200", "--json", "-")
+	if !strings.Contains(js, `"safe_power_w_99pct_of_trials"`) || !strings.Contains(js, `"p99"`) {
+		t.Error("JSON lacks the tolerance section")
+	}
+	_, csv, _ := runCLI(t, "audit", f, "--trials", "200", "--csv", "-")
+	if !strings.Contains(csv, "trials-p99") || !strings.Contains(csv, "trials-share-over-rating") {
+		t.Error("CSV lacks the tolerance rows")
+	}
+}
