@@ -60,7 +60,7 @@ func WriteTouchstone(w io.Writer, v *SweepView) error {
 	var b strings.Builder
 	b.WriteString("! rfstress frequency response\n")
 	if v.Title != "" {
-		b.WriteString("! " + strings.ReplaceAll(v.Title, "\n", " ") + "\n")
+		b.WriteString("! " + asciiOnly(v.Title) + "\n")
 	}
 	b.WriteString("[Version] 2.0\n")
 	fmt.Fprintf(&b, "# Hz S RI R %s\n", g(real(v.Z1)))
@@ -77,4 +77,29 @@ func WriteTouchstone(w io.Writer, v *SweepView) error {
 	b.WriteString("[End]\n")
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// asciiOnly spells a comment in ASCII, as Touchstone files must be
+// (Touchstone 2.0, general rules): µ becomes u, Ω ohm, other non-ASCII ?.
+func asciiOnly(s string) string {
+	var b strings.Builder
+	for _, r := range s {
+		switch {
+		case r == '\n' || r == '\r':
+			b.WriteByte(' ')
+		case r == 'µ' || r == 'μ':
+			b.WriteByte('u')
+		case r == 'Ω':
+			b.WriteString("ohm")
+		case r == '—' || r == '–':
+			b.WriteByte('-')
+		case r == '°':
+			b.WriteString("deg")
+		case r < 0x20 || r > 0x7e:
+			b.WriteByte('?')
+		default:
+			b.WriteRune(r)
+		}
+	}
+	return b.String()
 }
