@@ -116,20 +116,28 @@ type JSONLimiting struct {
 
 // JSONSection summarises one netlist.
 type JSONSection struct {
-	File       string         `json:"file"`
-	Title      string         `json:"title"`
-	SHA256     string         `json:"sha256"`
-	Verdict    string         `json:"verdict"`
-	SafePowerW *float64       `json:"safe_power_w"`
-	Limiting   JSONLimiting   `json:"limiting"`
-	Cases      int            `json:"cases"`
-	BandLoHz   float64        `json:"band_lo_hz"`
-	BandHiHz   float64        `json:"band_hi_hz"`
-	SWR        float64        `json:"swr"`
-	Harmonics  string         `json:"harmonics"`
-	MaxNodeVpk float64        `json:"max_node_vpk"`
-	Findings   []string       `json:"findings,omitempty"`
-	Tolerance  *JSONTolerance `json:"tolerance,omitempty"`
+	File          string         `json:"file"`
+	Title         string         `json:"title"`
+	SHA256        string         `json:"sha256"`
+	Verdict       string         `json:"verdict"`
+	SafePowerW    *float64       `json:"safe_power_w"`
+	Limiting      JSONLimiting   `json:"limiting"`
+	Cases         int            `json:"cases"`
+	PowerW        float64        `json:"power_w"`
+	Mode          string         `json:"mode"`
+	AvgRatio      float64        `json:"avg_ratio"`
+	Drive         string         `json:"drive"`
+	Derate        string         `json:"derate"`
+	AmbientC      float64        `json:"ambient_c"`
+	Faults        []string       `json:"faults"`
+	CarrierAlsoHz []float64      `json:"carrier_also_hz"`
+	BandLoHz      float64        `json:"band_lo_hz"`
+	BandHiHz      float64        `json:"band_hi_hz"`
+	SWR           float64        `json:"swr"`
+	Harmonics     string         `json:"harmonics"`
+	MaxNodeVpk    float64        `json:"max_node_vpk"`
+	Findings      []string       `json:"findings,omitempty"`
+	Tolerance     *JSONTolerance `json:"tolerance,omitempty"`
 }
 
 // JSONAudit is the whole audit document.
@@ -156,7 +164,10 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 		doc.Cases += s.NumCases
 		js := JSONSection{File: s.File, Title: s.Title, SHA256: s.SHA256, Verdict: s.Verdict.String(),
 			SafePowerW: jsonNum(s.SafeW), Limiting: JSONLimiting{Component: s.LimitPart, Quantity: string(s.LimitQ)},
-			Cases: s.NumCases, BandLoHz: s.Conditions.BandLo, BandHiHz: s.Conditions.BandHi, SWR: s.Conditions.SWR,
+			Cases: s.NumCases, PowerW: s.Conditions.PowerW, Mode: s.Conditions.Mode, AvgRatio: s.Conditions.AvgRatio,
+			Drive: s.Conditions.Drive, Derate: s.Conditions.Derate, AmbientC: s.Conditions.Ambient,
+			Faults: append([]string{}, s.Conditions.Faults...), CarrierAlsoHz: append([]float64{}, s.Conditions.CarrierAlso...),
+			BandLoHz: s.Conditions.BandLo, BandHiHz: s.Conditions.BandHi, SWR: s.Conditions.SWR,
 			Harmonics: s.Conditions.Harmonics, MaxNodeVpk: s.MaxNodeVpk}
 		for _, f := range s.Findings {
 			js.Findings = append(js.Findings, f.Part+": "+f.Text)
