@@ -233,7 +233,7 @@ func stripComment(line string) string {
 	return line
 }
 
-var namePattern = "a letter, then letters, digits, _ or -"
+var namePattern = "a letter or digit, then letters, digits, _, - or ."
 
 func validName(s string) bool {
 	if s == "" {
@@ -260,6 +260,12 @@ type parser struct {
 	matNames  map[string]Pos
 	nodeSeen  map[string]bool
 	nodePos   map[string]Pos
+	// port statements seen (even faulty ones) and where each names its node
+	portSeen    map[string]bool
+	portNodePos map[string]Pos
+	// kind of every part whose name was declared, kept even when a bad
+	// value left the part out, so a coupling to it raises no second error
+	partKind map[string]Kind
 }
 
 func (p *parser) errorf(pos Pos, want, format string, args ...any) {
@@ -274,6 +280,8 @@ func Parse(file string, src []byte) (*Netlist, error) {
 		nl:    &Netlist{File: file, Source: src},
 		names: map[string]Pos{}, coreNames: map[string]Pos{}, matNames: map[string]Pos{},
 		nodeSeen: map[string]bool{}, nodePos: map[string]Pos{},
+		portSeen: map[string]bool{}, portNodePos: map[string]Pos{},
+		partKind: map[string]Kind{},
 	}
 	if !utf8.Valid(src) {
 		p.errorf(Pos{file, 1, 1}, "a UTF-8 text file", "file is not valid UTF-8")
@@ -330,9 +338,9 @@ func (p *parser) line(ln int, raw string) {
 			"%s takes %d fields before its attributes, found %d", kw.text, len(spec.Fields), len(fields))
 		return
 	}
-	attrs, order := p.attrs(ln, kw.text, spec, rest)
+	attrs, order, written := p.attrs(ln, kw.text, spec, rest)
 	for _, req := range spec.Required {
-		if _, ok := attrs[req]; !ok {
+		if !written[req] { // a bad value is reported where it is written
 			p.errorf(p.pos(ln, kw.col), spec.Attrs[req].Help, "%s needs %s=", kw.text, req)
 		}
 	}
@@ -397,6 +405,7 @@ func (p *parser) port(ln int, f []token, attrs Attrs) {
 		p.errorf(p.pos(ln, f[0].col), "in (transmitter side) or out (antenna side)", "unknown port side %q", side)
 		return
 	}
+	p.portSeen[side] = true
 	pt := &Port{Side: side, Node: f[1].text, Pos: p.pos(ln, f[0].col)}
 	if f[1].text == Ground {
 		p.errorf(p.pos(ln, f[1].col), "a node other than gnd", "port %s on the ground node", side)
@@ -425,12 +434,14 @@ func (p *parser) port(ln int, f []token, attrs Attrs) {
 			return
 		}
 		p.nl.In = pt
+		p.portNodePos[side] = p.pos(ln, f[1].col)
 	} else {
 		if p.nl.Out != nil {
 			p.errorf(pt.Pos, "one port out", "port out is already defined at line %d", p.nl.Out.Pos.Line)
 			return
 		}
 		p.nl.Out = pt
+		p.portNodePos[side] = p.pos(ln, f[1].col)
 	}
 }
 
@@ -455,6 +466,9 @@ func (p *parser) coupling(ln int, f []token, attrs Attrs) {
 
 func (p *parser) component(ln int, kind Kind, f []token, attrs Attrs) {
 	okName := p.declare(p.names, "part", f[0], ln)
+	if okName {
+		p.partKind[f[0].text] = kind
+	}
 	a, okA := p.useNode(f[1], ln)
 	b, okB := p.useNode(f[2], ln)
 	if okA && okB && a == b {
@@ -497,8 +511,9 @@ func exampleValue(k Kind) string {
 }
 
 // attrs reads key=value tokens against the keyword's table.
-func (p *parser) attrs(ln int, kw string, spec Keyword, toks []token) (Attrs, []string) {
+func (p *parser) attrs(ln int, kw string, spec Keyword, toks []token) (Attrs, []string, map[string]bool) {
 	out := Attrs{}
+	written := map[string]bool{} // keys written, whether or not their values read
 	var order []string
 	for _, t := range toks {
 		eq := strings.IndexByte(t.text, '=')
@@ -514,10 +529,11 @@ func (p *parser) attrs(ln int, kw string, spec Keyword, toks []token) (Attrs, []
 			p.errorf(kpos, attrList(kw, spec), "unknown attribute %q for %s", key, kw)
 			continue
 		}
-		if _, dup := out[key]; dup {
+		if written[key] {
 			p.errorf(kpos, "each attribute once", "attribute %s given twice", key)
 			continue
 		}
+		written[key] = true
 		if val == "" {
 			p.errorf(vpos, as.Help, "attribute %s has no value", key)
 			continue
@@ -530,7 +546,7 @@ func (p *parser) attrs(ln int, kw string, spec Keyword, toks []token) (Attrs, []
 		out[key] = a
 		order = append(order, key)
 	}
-	return out, order
+	return out, order, written
 }
 
 func attrList(kw string, spec Keyword) string {
@@ -658,7 +674,7 @@ func readAttr(a *Attr, as AttrSpec) error {
 	case TRange:
 		lo, hi, ok := strings.Cut(s, ":")
 		if !ok {
-			return fmt.Errorf("%q is not a range lo:hi", s)
+			hi = lo // a single frequency is a band of one point
 		}
 		l, err := ParseValue(lo, "Hz")
 		if err != nil {
@@ -687,10 +703,10 @@ func splitComplexList(s string) []string { return strings.Split(s, ",") }
 func (p *parser) check() {
 	nl := p.nl
 	top := p.pos(1, 1)
-	if nl.In == nil {
+	if nl.In == nil && !p.portSeen["in"] {
 		p.errorf(top, "a line such as: port in n1 z=50", "no port in (transmitter side)")
 	}
-	if nl.Out == nil {
+	if nl.Out == nil && !p.portSeen["out"] {
 		p.errorf(top, "a line such as: port out n4 z=50", "no port out (antenna side)")
 	}
 	if nl.In != nil && nl.Out != nil && nl.In.Node == nl.Out.Node {
@@ -698,13 +714,11 @@ func (p *parser) check() {
 	}
 	for _, pt := range []*Port{nl.In, nl.Out} {
 		if pt != nil && !p.nodeSeen[pt.Node] {
-			p.errorf(Pos{pt.Pos.File, pt.Pos.Line, pt.Pos.Col}, "a node that a part connects to", "port %s names unknown node %q", pt.Side, pt.Node)
+			p.errorf(p.portNodePos[pt.Side], "a node that a part connects to", "port %s names unknown node %q", pt.Side, pt.Node)
 		}
 	}
-	inductors := map[string]*Component{}
 	for _, c := range nl.Components {
 		if c.Kind == Inductor {
-			inductors[c.Name] = c
 			if a, ok := c.Attrs["core"]; ok {
 				if _, known := p.coreNames[a.Words[0]]; !known {
 					p.errorf(a.ValPos, "the name of a core statement", "inductor %s uses unknown core %q", c.Name, a.Words[0])
@@ -714,7 +728,9 @@ func (p *parser) check() {
 	}
 	for _, k := range nl.Couplings {
 		for i, ln := range []string{k.L1, k.L2} {
-			if _, ok := inductors[ln]; !ok {
+			if kind, ok := p.partKind[ln]; ok && kind != Inductor {
+				p.errorf(k.LPos[i], "the name of an inductor", "coupling %s names %s %s, which is not an inductor", k.Name, kind, ln)
+			} else if !ok {
 				p.errorf(k.LPos[i], "the name of an inductor", "coupling %s names unknown inductor %q", k.Name, ln)
 			}
 		}
