@@ -142,11 +142,12 @@ func (s *Split) MaxNodeV(alpha complex128, e float64) float64 {
 }
 
 // LoadOnCircle is the load on the circle of the given SWR around z0 at
-// angle θ of the reflection coefficient. Γ is the power-wave reflection
-// coefficient Γ = (Z − z0)/(Z + z0*) (Kurokawa 1965), so
-// Z = (z0 + Γ·z0*)/(1 − Γ); for a real z0 this is the familiar
-// Z = z0·(1+Γ)/(1−Γ), and for a complex z0 every load on the circle stays
-// passive.
+// angle θ of Γ = (Z − z0)/(Z + z0*), so Z = (z0 + Γ·z0*)/(1 − Γ). This Γ is
+// Kurokawa's power-wave reflection coefficient (1965) taken with reference
+// z0*: it vanishes at Z = z0, the circle is centred on the antenna's own
+// impedance, and |Γ| < 1 exactly when Re Z > 0, so for a complex z0 every
+// load on the circle stays passive. For a real z0 it is the familiar
+// Z = z0·(1+Γ)/(1−Γ).
 func LoadOnCircle(z0 complex128, swr, theta float64) Load {
 	g := (swr - 1) / (swr + 1)
 	gam := complex(g*math.Cos(theta), g*math.Sin(theta))

@@ -1,0 +1,82 @@
+package circuits
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+)
+
+// fuzzSeeds are small valid and broken netlists; every testdata file is
+// added as well.
+var fuzzSeeds = []string{
+	base,
+	"port in a z=50\nport out b z=50\nresistor R a b 1\n",
+	"port in a z=50\nport out b z=12.5-j180\ncapacitor C a b 100p esr=0.1\ninductor L b gnd 1u q=90@3.5M,180@10M\n",
+	"port in a z=50\nport out b z=50\ninductor L1 a gnd 1u\ninductor L2 b gnd 1u\ncoupling K L1 L2 k=0.99\n",
+	"port in a z=50\nport out b z=50\ncapacitor C a b 1f df=0.1%\ncapacitor D b gnd 1G\n",
+	"port in a z=1e-300\nport out b z=1e300\nresistor R a b 1e-300\nresistor S b gnd 1e300\n",
+	"port in a z=50\nport out b z=50\ninductor L a b 1e30 q=1e-30\ncapacitor C b gnd 1e-30 q=1e30\n",
+	"title only a title\n",
+	"",
+	"port\n",
+	"port in\n",
+	"port in a z=\n",
+	"capacitor C1 a\n",
+	"coupling K L1 L1 k=2\n",
+	"core T od=1 id=x h=\n",
+	"audit band=1:0 harmonics=-30,-12 load=,, faults=open,,short\n",
+	"inductor L a b 1u q=1@1,2@1\n",
+	"port in a z=50 z=60\nport in a z=70\n",
+	"port in a z=j\nport out b z=+j-\n",
+	"title \xff\xfe\n",
+	"capacitor Cµ n1 gnd 10µ q=1e400\r\nport in n1 z=50\r\n",
+	"port in a z=50 # comment\n#port out b\nresistor R a gnd 5 # x=y\n",
+}
+
+// FuzzParse: Parse must never panic on any input; whatever parses must
+// build, and solving it (full solve with the port load, a short and an
+// open, the two-port, and the superposition split) must not panic either.
+// Errors are fine; numerically extreme values may give errors or
+// non-finite numbers, but never a panic.
+func FuzzParse(f *testing.F) {
+	for _, s := range fuzzSeeds {
+		f.Add([]byte(s))
+	}
+	files, _ := filepath.Glob(filepath.Join("testdata", "*.net"))
+	for _, name := range files {
+		if b, err := os.ReadFile(name); err == nil {
+			f.Add(b)
+		}
+	}
+	f.Fuzz(func(t *testing.T, src []byte) {
+		nl, err := Parse("fuzz.net", src)
+		if err != nil {
+			if _, ok := err.(ErrorList); !ok {
+				t.Fatalf("error of type %T, want ErrorList", err)
+			}
+			if err.Error() == "" {
+				t.Fatal("empty error text")
+			}
+			return
+		}
+		c, err := Build(nl)
+		if err != nil {
+			return
+		}
+		for _, freq := range []float64{1e6, 14.2e6} {
+			for _, ld := range []Load{{Z: c.Zout}, Short, OpenLoad} {
+				_, _ = c.Solve(freq, 100, ld)
+			}
+			_, _ = c.TwoPort(freq)
+			s := NewSplit(c)
+			if err := NewSplitWork(c).Fill(s, freq); err == nil {
+				a := s.Alpha(LoadOnCircle(c.Zout, 3, 1))
+				for i := range c.Elements {
+					_ = s.Part(i, a, 1)
+				}
+				_ = s.InputPower(a)
+				_ = s.MaxNodeV(a, 1)
+			}
+		}
+	})
+}
