@@ -2,4 +2,8 @@ module rfstress
 
 go 1.26.8
 
-require github.com/spf13/pflag v1.1.0 // indirect
+require (
+	github.com/jung-kurt/gofpdf v1.16.2
+	github.com/spf13/pflag v1.1.0
+	gonum.org/v1/gonum v0.17.0
+)
