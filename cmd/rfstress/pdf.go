@@ -1,11 +1,6 @@
 package main
 
-import (
-	"fmt"
-	"io"
+import "rfstress/reports"
 
-	"rfstress/reports"
-)
-
-// writePDF is swapped for reports.WritePDF once the report exists.
-var writePDF = func(w io.Writer, doc *reports.ReportDoc) error { return fmt.Errorf("PDF report not available") }
+// writePDF draws the stress report.
+var writePDF = reports.WritePDF

@@ -1,0 +1,366 @@
+package reports
+
+import (
+	"bytes"
+	_ "embed"
+	"fmt"
+	"io"
+	"math"
+	"strings"
+	"time"
+
+	"github.com/jung-kurt/gofpdf"
+
+	"rfstress/ratings"
+	"rfstress/stress"
+)
+
+// The fonts are embedded so the report renders Ω, µ, °, Γ, ∠, ² and − the
+// same on every machine; the PDF carries only the glyphs it uses. See
+// fonts/LICENSE-DejaVu.txt.
+var (
+	//go:embed fonts/DejaVuSansCondensed.ttf
+	fontRegular []byte
+	//go:embed fonts/DejaVuSansCondensed-Bold.ttf
+	fontBold []byte
+	//go:embed fonts/DejaVuSansMono.ttf
+	fontMono []byte
+)
+
+const (
+	fontSans = "dvsans"
+	fontCode = "dvmono"
+)
+
+// rgb is a colour of our own palette.
+type rgb struct{ r, g, b int }
+
+// The palette. Verdicts are always spelled out as words next to their
+// colour, so nothing depends on telling the colours apart.
+var (
+	colInk      = rgb{28, 32, 40}
+	colMuted    = rgb{98, 104, 116}
+	colRule     = rgb{186, 192, 202}
+	colFaint    = rgb{236, 239, 243}
+	colAccent   = rgb{24, 74, 104}   // headings, insertion loss
+	colSecond   = rgb{196, 104, 36}  // return loss
+	colBand     = rgb{222, 234, 244} // carrier band shading
+	colCaution  = rgb{255, 245, 220}
+	colCautionB = rgb{168, 58, 18}
+	colOK       = rgb{38, 128, 108}
+	colUnrated  = rgb{122, 114, 148}
+	colMarginal = rgb{214, 142, 20}
+	colFail     = rgb{186, 36, 66}
+	colWhite    = rgb{255, 255, 255}
+)
+
+func verdictColor(v ratings.Verdict) rgb {
+	switch v {
+	case ratings.OK:
+		return colOK
+	case ratings.Unrated:
+		return colUnrated
+	case ratings.Marginal:
+		return colMarginal
+	}
+	return colFail
+}
+
+// Page geometry, mm (A4 portrait).
+const (
+	pageW     = 210.0
+	pageH     = 297.0
+	marginL   = 16.0
+	marginR   = 16.0
+	marginTop = 20.0
+	marginBot = 18.0
+	bodyW     = pageW - marginL - marginR
+)
+
+// pdfw draws one report.
+type pdfw struct {
+	f   *gofpdf.Fpdf
+	doc *ReportDoc
+}
+
+// WritePDF lays out doc as the PDF stress report and writes it to w. The
+// output depends only on doc: doc.Date (set by the caller, from
+// SOURCE_DATE_EPOCH when given) is the printed date and the PDF's creation
+// and modification dates, so the same inputs give the same bytes.
+func WritePDF(w io.Writer, doc *ReportDoc) error {
+	if doc == nil || doc.Bank == nil {
+		return fmt.Errorf("report: nothing to report")
+	}
+	f := gofpdf.New("P", "mm", "A4", "")
+	// fonts before AliasNbPages: gofpdf then keeps the digits in every
+	// font subset, which the page total is written with at the end
+	f.AddUTF8FontFromBytes(fontSans, "", fontRegular)
+	f.AddUTF8FontFromBytes(fontSans, "B", fontBold)
+	f.AddUTF8FontFromBytes(fontCode, "", fontMono)
+	f.AliasNbPages("{nb}")
+	date := doc.Date.UTC()
+	if doc.Date.IsZero() {
+		date = time.Unix(0, 0).UTC() // never let gofpdf fall back to the clock
+	}
+	f.SetCreationDate(date)
+	f.SetModificationDate(date)
+	f.SetCatalogSort(true)
+	f.SetCompression(true)
+	f.SetProducer(doc.Tool, true)
+	f.SetCreator(doc.Tool, true)
+	f.SetTitle("RF stress report", true)
+	f.SetSubject(reportSubject(doc.Bank), true)
+	f.SetMargins(marginL, marginTop, marginR)
+	f.SetCellMargin(0) // text sits where it is placed; tables pad themselves
+	f.SetAutoPageBreak(true, marginBot)
+	p := &pdfw{f: f, doc: doc}
+	f.SetHeaderFuncMode(p.header, false)
+	f.SetFooterFunc(p.footer)
+
+	p.summary()
+	p.marginChart()
+	for i, s := range doc.Bank.Sections {
+		var fp *FilterPlot
+		if i < len(doc.Filters) {
+			fp = &doc.Filters[i]
+		}
+		p.sectionPages(s, fp)
+	}
+	p.method()
+	p.listings()
+
+	var buf bytes.Buffer
+	if err := f.Output(&buf); err != nil {
+		return fmt.Errorf("report: %w", err)
+	}
+	_, err := io.Copy(w, &buf)
+	return err
+}
+
+func reportSubject(b *stress.Bank) string {
+	var files []string
+	for _, s := range b.Sections {
+		files = append(files, s.File)
+	}
+	return "stress audit of " + strings.Join(files, ", ")
+}
+
+// printedDate is the report's date as people read it.
+func (p *pdfw) printedDate() string {
+	if p.doc.Date.IsZero() {
+		return "date not set"
+	}
+	return p.doc.Date.UTC().Format("2006-01-02")
+}
+
+func (p *pdfw) header() {
+	f := p.f
+	p.draw(colRule)
+	f.SetLineWidth(0.2)
+	f.Line(marginL, 14, pageW-marginR, 14)
+	if f.PageNo() > 1 { // page 1 carries the title itself
+		p.font("", 7.5)
+		p.text(colMuted)
+		p.cellAt(marginL, 9, bodyW/2, 4, "RF stress report", "L")
+		right := reportSubject(p.doc.Bank)
+		if len(p.doc.Bank.Sections) > 2 {
+			right = fmt.Sprintf("stress audit of %d netlists", len(p.doc.Bank.Sections))
+		}
+		p.cellAt(marginL+bodyW/2, 9, bodyW/2, 4, p.fit(right, bodyW/2), "R")
+	}
+	f.SetXY(marginL, marginTop)
+}
+
+func (p *pdfw) footer() {
+	f := p.f
+	p.draw(colRule)
+	f.SetLineWidth(0.2)
+	f.Line(marginL, pageH-13, pageW-marginR, pageH-13)
+	p.font("", 7.5)
+	p.text(colMuted)
+	// the page total is filled in at the end: left-aligned, so its
+	// placeholder's width never shifts anything
+	p.cellAt(marginL, pageH-12, 40, 4, fmt.Sprintf("page %d of {nb}", f.PageNo()), "L")
+	p.cellAt(marginL+40, pageH-12, bodyW-80, 4, p.doc.Tool, "C")
+	p.cellAt(pageW-marginR-40, pageH-12, 40, 4, p.printedDate(), "R")
+}
+
+// --- drawing helpers ---
+
+// clean makes text safe for gofpdf: its width tables and font subsets
+// cover the Basic Multilingual Plane only (a rune beyond it would index
+// past the table), and control characters have no glyph.
+func clean(s string) string {
+	ok := true
+	for _, r := range s {
+		if r > 0xFFFF || (r < 0x20 && r != '\n') || (r >= 0x7F && r < 0xA0) {
+			ok = false
+			break
+		}
+	}
+	if ok {
+		return s
+	}
+	var b strings.Builder
+	for _, r := range s {
+		switch {
+		case r > 0xFFFF:
+			b.WriteRune('\uFFFD')
+		case r < 0x20 && r != '\n', r >= 0x7F && r < 0xA0:
+			b.WriteRune(' ')
+		default:
+			b.WriteRune(r)
+		}
+	}
+	return b.String()
+}
+
+// cell writes one line of text in a box w wide; ln as in CellFormat.
+func (p *pdfw) cell(w, h float64, s string, ln int, align string) {
+	p.f.CellFormat(w, h, clean(s), "", ln, align, false, 0, "")
+}
+
+// cellAt is cell at (x, y).
+func (p *pdfw) cellAt(x, y, w, h float64, s, align string) {
+	p.f.SetXY(x, y)
+	p.cell(w, h, s, 0, align)
+}
+
+// multi writes wrapped text from the current position.
+func (p *pdfw) multi(w, h float64, s string) {
+	p.f.MultiCell(w, h, clean(s), "", "L", false)
+}
+
+// split wraps text to lines w wide in the current font.
+func (p *pdfw) split(s string, w float64) []string { return p.f.SplitText(clean(s), w) }
+
+// width is the width of s in the current font.
+func (p *pdfw) width(s string) float64 { return p.f.GetStringWidth(clean(s)) }
+
+func (p *pdfw) font(style string, size float64) { p.f.SetFont(fontSans, style, size) }
+func (p *pdfw) mono(size float64)               { p.f.SetFont(fontCode, "", size) }
+func (p *pdfw) text(c rgb)                      { p.f.SetTextColor(c.r, c.g, c.b) }
+func (p *pdfw) fill(c rgb)                      { p.f.SetFillColor(c.r, c.g, c.b) }
+func (p *pdfw) draw(c rgb)                      { p.f.SetDrawColor(c.r, c.g, c.b) }
+
+// room starts a new page unless h mm are left above the footer.
+func (p *pdfw) room(h float64) {
+	if p.f.GetY()+h > pageH-marginBot {
+		p.f.AddPage()
+	}
+}
+
+// newPage starts a page with a heading.
+func (p *pdfw) newPage(title string) {
+	p.f.AddPage()
+	p.heading(title)
+}
+
+// heading is a page or section title with a rule under it.
+func (p *pdfw) heading(title string) {
+	f := p.f
+	p.room(18)
+	p.font("B", 15)
+	p.text(colAccent)
+	f.SetX(marginL)
+	p.multi(bodyW, 7, title)
+	y := f.GetY() + 0.8
+	p.draw(colAccent)
+	f.SetLineWidth(0.6)
+	f.Line(marginL, y, marginL+28, y)
+	f.SetLineWidth(0.2)
+	p.draw(colRule)
+	f.Line(marginL+28, y, pageW-marginR, y)
+	f.SetY(y + 3)
+	p.text(colInk)
+}
+
+// sub is a smaller heading inside a page, kept on one page with the
+// first keep mm of what follows it.
+func (p *pdfw) sub(title string, keep float64) {
+	p.room(9 + keep)
+	p.f.Ln(1.5)
+	p.font("B", 10.5)
+	p.text(colAccent)
+	p.f.SetX(marginL)
+	p.multi(bodyW, 5.2, title)
+	p.f.Ln(0.8)
+	p.text(colInk)
+}
+
+// para writes wrapped text across the body.
+func (p *pdfw) para(size float64, s string) {
+	p.font("", size)
+	p.f.SetX(marginL)
+	p.multi(bodyW, size*0.46, s)
+}
+
+// paraHeight is the height para would take.
+func (p *pdfw) paraHeight(size float64, s string) float64 {
+	p.font("", size)
+	return float64(len(p.split(s, bodyW))) * size * 0.46
+}
+
+// bullet writes one wrapped item with a small square mark.
+func (p *pdfw) bullet(size float64, s string) {
+	f := p.f
+	lh := size * 0.46
+	p.font("", size)
+	lines := p.split(s, bodyW-5)
+	p.room(lh * float64(len(lines)))
+	y := f.GetY()
+	p.fill(colAccent)
+	f.Rect(marginL+1, y+lh/2-0.6, 1.2, 1.2, "F")
+	f.SetX(marginL + 5)
+	p.multi(bodyW-5, lh, s)
+}
+
+// fit shortens s with an ellipsis until it fits w mm in the current font.
+func (p *pdfw) fit(s string, w float64) string {
+	s = clean(s)
+	if p.width(s) <= w {
+		return s
+	}
+	r := []rune(s)
+	for len(r) > 1 {
+		r = r[:len(r)-1]
+		if t := string(r) + "…"; p.width(t) <= w {
+			return t
+		}
+	}
+	return "…"
+}
+
+// pill draws a verdict tag: the word in white on the verdict's colour.
+func (p *pdfw) pill(x, y, h float64, v ratings.Verdict) float64 {
+	f := p.f
+	word := strings.ToUpper(v.String())
+	p.font("B", h*2.1)
+	w := p.width(word) + h*0.9
+	p.fill(verdictColor(v))
+	f.RoundedRect(x, y, w, h, h*0.3, "1234", "F")
+	p.text(colWhite)
+	p.cellAt(x, y, w, h, word, "C")
+	p.text(colInk)
+	return w
+}
+
+// minus writes a number's sign as a typographic minus.
+func minus(s string) string {
+	if strings.HasPrefix(s, "-") {
+		return "−" + s[1:]
+	}
+	return s
+}
+
+// caseText describes case i of a section; empty when the section carries
+// no engine (a report built by hand).
+func caseText(s *stress.Section, i int) string {
+	if s.Engine == nil || i < 0 {
+		return ""
+	}
+	return s.Case(i).Describe()
+}
+
+// finite reports whether v can be drawn.
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }

@@ -1,0 +1,401 @@
+package reports
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"rfstress/circuits"
+	"rfstress/ratings"
+	"rfstress/stress"
+)
+
+// tcol is a table column.
+type tcol struct {
+	title string
+	w     float64 // mm
+	align string  // "L" or "R"
+}
+
+// tcell is one table cell: text, or a verdict tag.
+type tcell struct {
+	s     string
+	pill  bool
+	v     ratings.Verdict
+	bold  bool
+	mono  bool
+	muted bool
+}
+
+// trow is a table row with optional full-width detail lines under it.
+type trow struct {
+	cells      []tcell
+	detail     []string
+	detailMono bool // detail is a digest or code: monospace
+	cont       bool // continues the previous row's group: same shading
+}
+
+func tc(s string) tcell { return tcell{s: s} }
+
+func tv(v ratings.Verdict) tcell { return tcell{pill: true, v: v} }
+
+const cellPad = 1.2
+
+// rowLayout is a row wrapped to its columns.
+type rowLayout struct {
+	lines  [][]string
+	n      int // text lines of the tallest cell
+	dlines []string
+	h      float64
+}
+
+// table draws rows under a header that is repeated after page breaks.
+// Cells wrap; a row never splits across pages, and a group of rows (a row
+// and the rows that continue it) starts on a new page rather than leave a
+// short remnant, unless the group is too tall to keep together.
+func (p *pdfw) table(cols []tcol, rows []trow, size float64) {
+	f := p.f
+	lh := size * 0.44
+	detailSize := size - 1.2
+	dlh := detailSize * 0.44
+	tw := tableW(cols)
+	detailFont := func(r trow) {
+		if r.detailMono {
+			p.mono(detailSize - 0.6)
+		} else {
+			p.font("", detailSize)
+		}
+	}
+	layout := func(r trow) rowLayout {
+		l := rowLayout{lines: make([][]string, len(cols)), n: 1}
+		for i, c := range r.cells {
+			if i >= len(cols) || c.pill {
+				continue
+			}
+			p.cellFont(c, size)
+			l.lines[i] = p.split(c.s, cols[i].w-2*cellPad)
+			l.n = max(l.n, len(l.lines[i]))
+		}
+		detailFont(r)
+		for _, d := range r.detail {
+			l.dlines = append(l.dlines, p.split(d, tw-6)...)
+		}
+		l.h = float64(l.n)*lh + 2*cellPad
+		if len(l.dlines) > 0 {
+			l.h += float64(len(l.dlines))*dlh + cellPad
+		}
+		return l
+	}
+	lays := make([]rowLayout, len(rows))
+	for i, r := range rows {
+		lays[i] = layout(r)
+	}
+	header := func() {
+		p.font("B", size)
+		var maxLines int
+		for _, c := range cols {
+			maxLines = max(maxLines, len(p.split(c.title, c.w-2*cellPad)))
+		}
+		h := float64(maxLines)*lh + 2*cellPad
+		y := f.GetY()
+		p.fill(colFaint)
+		f.Rect(marginL, y, tw, h, "F")
+		p.text(colAccent)
+		x := marginL
+		for _, c := range cols {
+			for i, l := range p.split(c.title, c.w-2*cellPad) {
+				p.cellAt(x+cellPad, y+cellPad+float64(i)*lh, c.w-2*cellPad, lh, l, c.align)
+			}
+			x += c.w
+		}
+		p.draw(colAccent)
+		f.SetLineWidth(0.3)
+		f.Line(marginL, y+h, marginL+tw, y+h)
+		f.SetY(y + h)
+		p.text(colInk)
+	}
+	const keepGroup = 60.0 // mm: taller groups may split
+	p.room(16)
+	header()
+	shade := true
+	groupHead := ""
+	for ri, r := range rows {
+		lay := lays[ri]
+		need := lay.h
+		if !r.cont {
+			shade = !shade
+			group := lay.h
+			for j := ri + 1; j < len(rows) && rows[j].cont; j++ {
+				group += lays[j].h
+			}
+			if group <= keepGroup {
+				need = group
+			}
+		}
+		if f.GetY()+need > pageH-marginBot {
+			f.AddPage()
+			header()
+			if r.cont && len(r.cells) > 0 && r.cells[0].s == "" && groupHead != "" {
+				// a group carried over names itself again
+				r.cells = append([]tcell{{s: groupHead + " (cont.)", muted: true}}, r.cells[1:]...)
+				lay = layout(r)
+			}
+		}
+		if !r.cont && len(r.cells) > 0 {
+			groupHead = r.cells[0].s
+		}
+		y := f.GetY()
+		if shade {
+			p.fill(rgb{246, 247, 249})
+			f.Rect(marginL, y, tw, lay.h, "F")
+		}
+		x := marginL
+		for i, c := range r.cells {
+			if i >= len(cols) {
+				break
+			}
+			if c.pill {
+				p.pill(x+cellPad, y+cellPad, lh, c.v)
+			} else {
+				p.cellFont(c, size)
+				for j, l := range lay.lines[i] {
+					p.cellAt(x+cellPad, y+cellPad+float64(j)*lh, cols[i].w-2*cellPad, lh, l, cols[i].align)
+				}
+				p.text(colInk)
+			}
+			x += cols[i].w
+		}
+		if len(lay.dlines) > 0 {
+			detailFont(r)
+			p.text(colMuted)
+			dy := y + float64(lay.n)*lh + 2*cellPad
+			for j, l := range lay.dlines {
+				p.cellAt(marginL+4, dy+float64(j)*dlh, tw-6, dlh, l, "L")
+			}
+			p.text(colInk)
+		}
+		if ri == len(rows)-1 || !rows[ri+1].cont { // rules between groups only
+			p.draw(colRule)
+			f.SetLineWidth(0.1)
+			f.Line(marginL, y+lay.h, marginL+tw, y+lay.h)
+		}
+		f.SetY(y + lay.h)
+	}
+	f.Ln(2)
+}
+
+func (p *pdfw) cellFont(c tcell, size float64) {
+	switch {
+	case c.mono:
+		p.mono(size - 0.8)
+	case c.bold:
+		p.font("B", size)
+	default:
+		p.font("", size)
+	}
+	if c.muted {
+		p.text(colMuted)
+	} else {
+		p.text(colInk)
+	}
+}
+
+func tableW(cols []tcol) float64 {
+	var w float64
+	for _, c := range cols {
+		w += c.w
+	}
+	return w
+}
+
+// widths scales relative column widths to the body width.
+func widths(titles []string, rel []float64, align string) []tcol {
+	var sum float64
+	for _, r := range rel {
+		sum += r
+	}
+	cols := make([]tcol, len(titles))
+	for i, t := range titles {
+		a := "L"
+		if i < len(align) && align[i] == 'R' {
+			a = "R"
+		}
+		cols[i] = tcol{title: t, w: bodyW * rel[i] / sum, align: a}
+	}
+	return cols
+}
+
+// partTable is the per-section table: one row per part with its worst
+// stresses, and under it every quantity with the case that produced it,
+// its rating and basis, use of the derated limit and verdict.
+func (p *pdfw) partTable(s *stress.Section) {
+	shownQ := []ratings.Quantity{ratings.Vpk, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp}
+	titles := []string{"part", "value", "peak V", "RMS I", "dissipation", "flux", "temp.", "use", "verdict"}
+	cols := widths(titles, []float64{13, 15, 15, 14, 15, 14, 12, 12, 17}, "LLRRRRRRL")
+	var rows []trow
+	for _, pr := range s.Parts {
+		r := trow{cells: []tcell{{s: pr.Name, bold: true}, tc(ValueText(pr.Kind, pr.Value))}}
+		for _, q := range shownQ {
+			if st, ok := pr.Stress[q]; ok {
+				r.cells = append(r.cells, tc(FormatQ(q, st.Value)))
+			} else {
+				r.cells = append(r.cells, tcell{s: "", muted: true})
+			}
+		}
+		r.cells = append(r.cells, tc(pct(pr.Util)), tv(pr.Verdict))
+		for _, q := range stress.Quantities {
+			if st, ok := pr.Stress[q]; ok {
+				r.detail = append(r.detail, stressDetail(s, st))
+			}
+		}
+		rows = append(rows, r)
+	}
+	p.table(cols, rows, 8)
+}
+
+// stressDetail is one quantity of one part in words.
+func stressDetail(s *stress.Section, st *stress.Stress) string {
+	q := st.Quantity
+	var b strings.Builder
+	b.WriteString(QuantityLabel(q) + " " + FormatQ(q, st.Value))
+	if c := caseText(s, st.Case); c != "" {
+		b.WriteString(" at " + c)
+	}
+	lim := st.Limit
+	switch {
+	case lim.Quantity == "":
+		b.WriteString(" · not judged")
+		return b.String()
+	case lim.Abs <= 0:
+		b.WriteString(" · " + lim.Basis)
+		b.WriteString(" → " + st.Verdict.String())
+		if st.Verdict != ratings.OK {
+			b.WriteString("; " + UpgradeText(stress.Upgrade{Stress: st}))
+		}
+		return b.String()
+	}
+	fmt.Fprintf(&b, " · rating %s (%s), derated %s", FormatQ(q, lim.Abs), lim.Basis, FormatQ(q, lim.Derated))
+	fmt.Fprintf(&b, " · %s of the derated limit", pct(st.Util))
+	if st.UtilCase != st.Case {
+		if c := caseText(s, st.UtilCase); c != "" {
+			b.WriteString(" at " + c)
+		}
+	}
+	b.WriteString(" → " + st.Verdict.String())
+	if st.Verdict != ratings.OK {
+		b.WriteString("; " + UpgradeText(stress.Upgrade{Stress: st}))
+	}
+	return b.String()
+}
+
+// findings lists the section's and its parts' findings.
+func (p *pdfw) findings(s *stress.Section) {
+	type item struct{ who, sev, text string }
+	var all []item
+	for _, f := range s.Findings {
+		who := f.Part
+		if who == "" {
+			who = "netlist"
+		}
+		all = append(all, item{who, f.Severity, f.Text})
+	}
+	for _, pr := range s.Parts {
+		for _, f := range pr.Findings {
+			all = append(all, item{pr.Name, f.Severity, f.Text})
+		}
+	}
+	if len(all) == 0 {
+		return
+	}
+	p.sub("Findings", 8)
+	for _, it := range all {
+		p.bullet(8, it.who+" — "+it.sev+": "+it.text)
+	}
+}
+
+// tolerance draws the Monte Carlo spread of a section.
+func (p *pdfw) tolerance(s *stress.Section) {
+	t := s.Tolerance
+	if t == nil {
+		return
+	}
+	intro := fmt.Sprintf("%d trials drawn from a %s distribution of part values and Q (seed %d). "+
+		"Safe power met by 99 %% of trials (1st percentile): %s; median trial: %s.",
+		t.Trials, t.Dist, t.Seed, FormatPower(t.SafeP01), FormatPower(t.SafeMed))
+	p.sub("Part tolerances (Monte Carlo)", p.paraHeight(8.5, intro)+20)
+	p.para(8.5, intro)
+	p.f.Ln(1.5)
+	cols := widths([]string{"part", "quantity", "median", "99th percentile", "maximum", "trials over derated limit", "trials over rating"},
+		[]float64{12, 20, 15, 15, 15, 17, 15}, "LLRRRRR")
+	var rows []trow
+	for _, tp := range t.Parts {
+		for i, tq := range tp.Q {
+			name := tcell{s: tp.Name, bold: true}
+			if i > 0 {
+				name = tcell{}
+			}
+			over, overR := "—", "—"
+			if tq.Rated {
+				over, overR = share(tq.OverDerated), share(tq.OverRating)
+			}
+			rows = append(rows, trow{cont: i > 0, cells: []tcell{name, tc(QuantityLabel(tq.Quantity)),
+				tc(FormatQ(tq.Quantity, tq.Median)), tc(FormatQ(tq.Quantity, tq.P99)), tc(FormatQ(tq.Quantity, tq.Max)),
+				tc(over), tc(overR)}})
+		}
+	}
+	p.table(cols, rows, 7.5)
+}
+
+// share renders a fraction of trials as a percentage, keeping small
+// non-zero shares visible.
+func share(x float64) string {
+	switch {
+	case !finite(x) || x < 0:
+		return "—"
+	case x == 0:
+		return "0 %"
+	case x < 0.001:
+		return "< 0.1 %"
+	case x < 0.1:
+		return strconv.FormatFloat(100*x, 'f', 1, 64) + " %"
+	}
+	return strconv.FormatFloat(100*x, 'f', 0, 64) + " %"
+}
+
+// sectionPages is a netlist's response plot, part table, findings and
+// tolerance spread.
+func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
+	title := s.File
+	if s.Title != "" {
+		title += " — " + s.Title
+	}
+	p.newPage(title)
+	p.text(colMuted)
+	for _, l := range ConditionsText(s.Conditions) {
+		p.para(8.5, l)
+	}
+	p.para(8.5, fmt.Sprintf("%d cases audited; highest node voltage %s peak at node %s (%s)",
+		s.NumCases, circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, caseText(s, s.MaxNodeCase)))
+	p.text(colInk)
+	if fp != nil && len(fp.Sweep) > 1 {
+		p.sub("Frequency response (matched)", plotTopSp+plotH+30)
+		p.responsePlot(fp)
+	}
+	intro := "Worst value of each quantity over every case; under each part, every quantity with the case that produced it, " +
+		"its rating and where the rating comes from, the derated limit, the share of the derated limit used and the verdict."
+	p.sub("Parts", p.paraHeight(8, intro)+24)
+	p.para(8, intro)
+	p.f.Ln(1)
+	p.partTable(s)
+	safe := "Safe power for this netlist: " + FormatPower(s.SafeW)
+	if !math.IsInf(s.SafeW, 1) {
+		safe += ", set by the " + QuantityLabel(s.LimitQ) + " of " + s.LimitPart
+	}
+	p.font("B", 9)
+	p.room(5)
+	p.f.SetX(marginL)
+	p.multi(bodyW, 4.4, safe)
+	p.findings(s)
+	p.tolerance(s)
+}
