@@ -9,24 +9,24 @@ import (
 	"rfstress/circuits"
 )
 
-// benchSource is the demo station's 40 m lowpass when present, else the
+// benchSource is the demo station's 80 m lowpass (toroid cores) when present, else the
 // test lowpass, so the benchmarks measure a realistic filter.
 func benchSource(b *testing.B) string {
-	if src, err := os.ReadFile("../testdata/station/lpf-40m.net"); err == nil {
+	if src, err := os.ReadFile("../testdata/station/lpf-80m.net"); err == nil {
 		return string(src)
 	}
-	return testLowpass("audit band=7.0M:7.3M swr=3 faults=open,short")
+	return testLowpass("audit band=3.5M:3.8M swr=3 faults=open,short")
 }
 
 // default audit settings of the issue: 7 carriers × 72 phases, harmonics
 // to the 9th, open and short faults.
-var benchDefault = []string{"band=7.0M:7.3M", "points=7", "swr=3", "phases=72", "faults=open,short", "harmonics=push-pull", "harmonic-max=9"}
+var benchDefault = []string{"band=3.5M:3.8M", "points=7", "swr=3", "phases=72", "faults=open,short", "harmonics=push-pull", "harmonic-max=9"}
 
 func BenchmarkSolveOneFrequency(b *testing.B) {
 	fx := build(b, benchSource(b), benchDefault...)
 	b.ReportAllocs()
 	for b.Loop() {
-		if _, err := fx.c.Solve(7.1e6, 100, circuits.Load{Z: 50}); err != nil {
+		if _, err := fx.c.Solve(3.6e6, 100, circuits.Load{Z: 50}); err != nil {
 			b.Fatal(err)
 		}
 	}
@@ -37,13 +37,13 @@ func BenchmarkSolveOneFrequency(b *testing.B) {
 // (n³/3 complex multiply-adds of 8 real flops each).
 func BenchmarkFactor(b *testing.B) {
 	fx := build(b, benchSource(b), benchDefault...)
-	fz, err := fx.c.Factor(7.1e6, nil)
+	fz, err := fx.c.Factor(3.6e6, nil)
 	if err != nil {
 		b.Fatal(err)
 	}
 	n := fz.N()
 	for b.Loop() {
-		if err := fz.Refactor(7.1e6); err != nil {
+		if err := fz.Refactor(3.6e6); err != nil {
 			b.Fatal(err)
 		}
 	}
