@@ -199,20 +199,24 @@ func (n *Netlist) Core(name string) *Core {
 	return nil
 }
 
-type token struct {
-	text string
-	col  int
+// Field is one whitespace-separated word of a line and the column, in
+// characters from 1, where it starts.
+type Field struct {
+	Text string
+	Col  int
 }
 
-// tokenize splits a line (comment removed) into fields with columns.
-func tokenize(line string) []token {
-	var toks []token
+// Fields splits a line into words with their columns. The netlist, the
+// materials file and the derating profile file all read lines this way, so
+// their error columns agree.
+func Fields(line string) []Field {
+	var toks []Field
 	col := 1
 	start, startCol := -1, 0
 	for i, r := range line {
 		if unicode.IsSpace(r) {
 			if start >= 0 {
-				toks = append(toks, token{line[start:i], startCol})
+				toks = append(toks, Field{line[start:i], startCol})
 				start = -1
 			}
 		} else if start < 0 {
@@ -221,7 +225,7 @@ func tokenize(line string) []token {
 		col++
 	}
 	if start >= 0 {
-		toks = append(toks, token{line[start:], startCol})
+		toks = append(toks, Field{line[start:], startCol})
 	}
 	return toks
 }
@@ -303,64 +307,64 @@ func (p *parser) pos(line, col int) Pos { return Pos{p.file, line, col} }
 
 func (p *parser) line(ln int, raw string) {
 	body := stripComment(raw)
-	toks := tokenize(body)
+	toks := Fields(body)
 	if len(toks) == 0 {
 		return
 	}
 	kw := toks[0]
-	spec, ok := Keywords[kw.text]
+	spec, ok := Keywords[kw.Text]
 	if !ok {
-		p.errorf(p.pos(ln, kw.col), "one of "+keywordList(), "unknown keyword %q", kw.text)
+		p.errorf(p.pos(ln, kw.Col), "one of "+keywordList(), "unknown keyword %q", kw.Text)
 		return
 	}
-	if kw.text == "title" {
+	if kw.Text == "title" {
 		if p.nl.Title != "" {
-			p.errorf(p.pos(ln, kw.col), "one title per file", "second title")
+			p.errorf(p.pos(ln, kw.Col), "one title per file", "second title")
 		}
 		p.nl.Title = strings.TrimSpace(body[strings.Index(body, "title")+len("title"):])
 		return
 	}
 	// positional fields come first, then key=value attributes
-	var fields []token
+	var fields []Field
 	rest := toks[1:]
-	for len(rest) > 0 && !strings.Contains(rest[0].text, "=") {
+	for len(rest) > 0 && !strings.Contains(rest[0].Text, "=") {
 		fields = append(fields, rest[0])
 		rest = rest[1:]
 	}
 	if len(fields) != len(spec.Fields) {
-		at := kw.col
+		at := kw.Col
 		if len(fields) > len(spec.Fields) {
-			at = fields[len(spec.Fields)].col
+			at = fields[len(spec.Fields)].Col
 		} else if len(fields) > 0 {
-			at = fields[len(fields)-1].col
+			at = fields[len(fields)-1].Col
 		}
-		p.errorf(p.pos(ln, at), kw.text+" "+strings.Join(spec.Fields, " ")+" key=value…",
-			"%s takes %d fields before its attributes, found %d", kw.text, len(spec.Fields), len(fields))
+		p.errorf(p.pos(ln, at), kw.Text+" "+strings.Join(spec.Fields, " ")+" key=value…",
+			"%s takes %d fields before its attributes, found %d", kw.Text, len(spec.Fields), len(fields))
 		return
 	}
-	attrs, order, written := p.attrs(ln, kw.text, spec, rest)
+	attrs, order, written := p.attrs(ln, kw.Text, spec, rest)
 	for _, req := range spec.Required {
 		if !written[req] { // a bad value is reported where it is written
-			p.errorf(p.pos(ln, kw.col), spec.Attrs[req].Help, "%s needs %s=", kw.text, req)
+			p.errorf(p.pos(ln, kw.Col), spec.Attrs[req].Help, "%s needs %s=", kw.Text, req)
 		}
 	}
-	switch kw.text {
+	switch kw.Text {
 	case "port":
 		p.port(ln, fields, attrs)
 	case "core":
 		if p.declare(p.coreNames, "core", fields[0], ln) {
-			p.nl.Cores = append(p.nl.Cores, &Core{Name: fields[0].text, Pos: p.pos(ln, fields[0].col), Attrs: attrs})
+			p.nl.Cores = append(p.nl.Cores, &Core{Name: fields[0].Text, Pos: p.pos(ln, fields[0].Col), Attrs: attrs})
 		}
 	case "material":
 		if p.declare(p.matNames, "material", fields[0], ln) {
-			p.nl.Materials = append(p.nl.Materials, &Material{Name: fields[0].text, Pos: p.pos(ln, fields[0].col), Attrs: attrs})
+			p.nl.Materials = append(p.nl.Materials, &Material{Name: fields[0].Text, Pos: p.pos(ln, fields[0].Col), Attrs: attrs})
 		}
 	case "coupling":
 		p.coupling(ln, fields, attrs)
 	case "audit":
-		p.nl.Audit = append(p.nl.Audit, &Directive{Pos: p.pos(ln, kw.col), Attrs: attrs, Order: order})
+		p.nl.Audit = append(p.nl.Audit, &Directive{Pos: p.pos(ln, kw.Col), Attrs: attrs, Order: order})
 	default:
-		p.component(ln, Kind(kw.text), fields, attrs)
+		p.component(ln, Kind(kw.Text), fields, attrs)
 	}
 }
 
@@ -373,46 +377,46 @@ func keywordList() string {
 	return strings.Join(ks, ", ")
 }
 
-func (p *parser) declare(names map[string]Pos, what string, t token, ln int) bool {
-	if !validName(t.text) {
-		p.errorf(p.pos(ln, t.col), namePattern, "bad %s name %q", what, t.text)
+func (p *parser) declare(names map[string]Pos, what string, t Field, ln int) bool {
+	if !validName(t.Text) {
+		p.errorf(p.pos(ln, t.Col), namePattern, "bad %s name %q", what, t.Text)
 		return false
 	}
-	if first, dup := names[t.text]; dup {
-		p.errorf(p.pos(ln, t.col), "a name not used before", "%s %s is already defined at line %d", what, t.text, first.Line)
+	if first, dup := names[t.Text]; dup {
+		p.errorf(p.pos(ln, t.Col), "a name not used before", "%s %s is already defined at line %d", what, t.Text, first.Line)
 		return false
 	}
-	names[t.text] = p.pos(ln, t.col)
+	names[t.Text] = p.pos(ln, t.Col)
 	return true
 }
 
-func (p *parser) useNode(t token, ln int) (string, bool) {
-	if !validName(t.text) {
-		p.errorf(p.pos(ln, t.col), "a node name: "+namePattern, "bad node name %q", t.text)
+func (p *parser) useNode(t Field, ln int) (string, bool) {
+	if !validName(t.Text) {
+		p.errorf(p.pos(ln, t.Col), "a node name: "+namePattern, "bad node name %q", t.Text)
 		return "", false
 	}
-	if t.text != Ground && !p.nodeSeen[t.text] {
-		p.nodeSeen[t.text] = true
-		p.nodePos[t.text] = p.pos(ln, t.col)
-		p.nl.Nodes = append(p.nl.Nodes, t.text)
+	if t.Text != Ground && !p.nodeSeen[t.Text] {
+		p.nodeSeen[t.Text] = true
+		p.nodePos[t.Text] = p.pos(ln, t.Col)
+		p.nl.Nodes = append(p.nl.Nodes, t.Text)
 	}
-	return t.text, true
+	return t.Text, true
 }
 
-func (p *parser) port(ln int, f []token, attrs Attrs) {
-	side := f[0].text
+func (p *parser) port(ln int, f []Field, attrs Attrs) {
+	side := f[0].Text
 	if side != "in" && side != "out" {
-		p.errorf(p.pos(ln, f[0].col), "in (transmitter side) or out (antenna side)", "unknown port side %q", side)
+		p.errorf(p.pos(ln, f[0].Col), "in (transmitter side) or out (antenna side)", "unknown port side %q", side)
 		return
 	}
 	p.portSeen[side] = true
-	pt := &Port{Side: side, Node: f[1].text, Pos: p.pos(ln, f[0].col)}
-	if f[1].text == Ground {
-		p.errorf(p.pos(ln, f[1].col), "a node other than gnd", "port %s on the ground node", side)
+	pt := &Port{Side: side, Node: f[1].Text, Pos: p.pos(ln, f[0].Col)}
+	if f[1].Text == Ground {
+		p.errorf(p.pos(ln, f[1].Col), "a node other than gnd", "port %s on the ground node", side)
 		return
 	}
-	if !validName(f[1].text) {
-		p.errorf(p.pos(ln, f[1].col), "a node name: "+namePattern, "bad node name %q", f[1].text)
+	if !validName(f[1].Text) {
+		p.errorf(p.pos(ln, f[1].Col), "a node name: "+namePattern, "bad node name %q", f[1].Text)
 		return
 	}
 	if a, ok := attrs["z"]; ok {
@@ -434,25 +438,25 @@ func (p *parser) port(ln int, f []token, attrs Attrs) {
 			return
 		}
 		p.nl.In = pt
-		p.portNodePos[side] = p.pos(ln, f[1].col)
+		p.portNodePos[side] = p.pos(ln, f[1].Col)
 	} else {
 		if p.nl.Out != nil {
 			p.errorf(pt.Pos, "one port out", "port out is already defined at line %d", p.nl.Out.Pos.Line)
 			return
 		}
 		p.nl.Out = pt
-		p.portNodePos[side] = p.pos(ln, f[1].col)
+		p.portNodePos[side] = p.pos(ln, f[1].Col)
 	}
 }
 
-func (p *parser) coupling(ln int, f []token, attrs Attrs) {
+func (p *parser) coupling(ln int, f []Field, attrs Attrs) {
 	if !p.declare(p.names, "part", f[0], ln) {
 		return
 	}
-	c := &Coupling{Name: f[0].text, L1: f[1].text, L2: f[2].text, Pos: p.pos(ln, f[0].col),
-		LPos: [2]Pos{p.pos(ln, f[1].col), p.pos(ln, f[2].col)}}
+	c := &Coupling{Name: f[0].Text, L1: f[1].Text, L2: f[2].Text, Pos: p.pos(ln, f[0].Col),
+		LPos: [2]Pos{p.pos(ln, f[1].Col), p.pos(ln, f[2].Col)}}
 	if c.L1 == c.L2 {
-		p.errorf(p.pos(ln, f[2].col), "two different inductors", "coupling %s couples %s to itself", c.Name, c.L1)
+		p.errorf(p.pos(ln, f[2].Col), "two different inductors", "coupling %s couples %s to itself", c.Name, c.L1)
 	}
 	if a, ok := attrs["k"]; ok {
 		c.K = a.Num
@@ -464,24 +468,24 @@ func (p *parser) coupling(ln int, f []token, attrs Attrs) {
 	// inductor names are checked once the whole file is read
 }
 
-func (p *parser) component(ln int, kind Kind, f []token, attrs Attrs) {
+func (p *parser) component(ln int, kind Kind, f []Field, attrs Attrs) {
 	okName := p.declare(p.names, "part", f[0], ln)
 	if okName {
-		p.partKind[f[0].text] = kind
+		p.partKind[f[0].Text] = kind
 	}
 	a, okA := p.useNode(f[1], ln)
 	b, okB := p.useNode(f[2], ln)
 	if okA && okB && a == b {
-		p.errorf(p.pos(ln, f[2].col), "two different nodes", "%s %s is connected to itself (both ends on %s)", kind, f[0].text, a)
+		p.errorf(p.pos(ln, f[2].Col), "two different nodes", "%s %s is connected to itself (both ends on %s)", kind, f[0].Text, a)
 	}
 	units := map[Kind][]string{Capacitor: {"F"}, Inductor: {"H"}, Resistor: {"ohm"}}[kind]
-	v, err := ParseValue(f[3].text, units...)
+	v, err := ParseValue(f[3].Text, units...)
 	valueOK := true
 	if err != nil {
-		p.errorf(p.pos(ln, f[3].col), "a value such as "+exampleValue(kind), "bad %s value: %v", kind, err)
+		p.errorf(p.pos(ln, f[3].Col), "a value such as "+exampleValue(kind), "bad %s value: %v", kind, err)
 		valueOK = false
 	} else if v <= 0 {
-		p.errorf(p.pos(ln, f[3].col), "a value above zero, such as "+exampleValue(kind), "%s value %s is not positive", kind, f[3].text)
+		p.errorf(p.pos(ln, f[3].Col), "a value above zero, such as "+exampleValue(kind), "%s value %s is not positive", kind, f[3].Text)
 		valueOK = false
 	}
 	n := 0
@@ -491,11 +495,11 @@ func (p *parser) component(ln int, kind Kind, f []token, attrs Attrs) {
 		}
 	}
 	if n > 1 {
-		p.errorf(p.pos(ln, f[0].col), "one of q=, esr=, df=", "%s %s gives more than one loss figure", kind, f[0].text)
+		p.errorf(p.pos(ln, f[0].Col), "one of q=, esr=, df=", "%s %s gives more than one loss figure", kind, f[0].Text)
 	}
 	if okName && valueOK {
 		p.nl.Components = append(p.nl.Components, &Component{
-			Name: f[0].text, Kind: kind, A: a, B: b, Value: v, Pos: p.pos(ln, f[0].col), Attrs: attrs,
+			Name: f[0].Text, Kind: kind, A: a, B: b, Value: v, Pos: p.pos(ln, f[0].Col), Attrs: attrs,
 		})
 	}
 }
@@ -511,19 +515,19 @@ func exampleValue(k Kind) string {
 }
 
 // attrs reads key=value tokens against the keyword's table.
-func (p *parser) attrs(ln int, kw string, spec Keyword, toks []token) (Attrs, []string, map[string]bool) {
+func (p *parser) attrs(ln int, kw string, spec Keyword, toks []Field) (Attrs, []string, map[string]bool) {
 	out := Attrs{}
 	written := map[string]bool{} // keys written, whether or not their values read
 	var order []string
 	for _, t := range toks {
-		eq := strings.IndexByte(t.text, '=')
+		eq := strings.IndexByte(t.Text, '=')
 		if eq < 0 {
-			p.errorf(p.pos(ln, t.col), "key=value", "%q after the attributes began", t.text)
+			p.errorf(p.pos(ln, t.Col), "key=value", "%q after the attributes began", t.Text)
 			continue
 		}
-		key, val := t.text[:eq], t.text[eq+1:]
-		kpos := p.pos(ln, t.col)
-		vpos := p.pos(ln, t.col+utf8.RuneCountInString(t.text[:eq+1]))
+		key, val := t.Text[:eq], t.Text[eq+1:]
+		kpos := p.pos(ln, t.Col)
+		vpos := p.pos(ln, t.Col+utf8.RuneCountInString(t.Text[:eq+1]))
 		as, ok := spec.Attrs[key]
 		if !ok {
 			p.errorf(kpos, attrList(kw, spec), "unknown attribute %q for %s", key, kw)

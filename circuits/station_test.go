@@ -82,31 +82,6 @@ func readStationDesign(src []byte) (stationDesign, error) {
 	return d, fmt.Errorf("no '# design: chebyshev …' line")
 }
 
-// stationChebyshevG is the equal-ripple lowpass prototype g1…gn for a
-// ripple of lar dB, from the closed-form formulas of Matthaei, Young &
-// Jones 1964, sec. 4.05:
-//
-//	β = ln(coth(L_Ar/17.37)), γ = sinh(β/(2n)),
-//	a_k = sin((2k−1)π/(2n)), b_k = γ² + sin²(kπ/n),
-//	g_1 = 2a_1/γ, g_k = 4a_{k−1}a_k/(b_{k−1}g_{k−1}).
-//
-// 17.37 is 40/ln 10 rounded; the exact constant is used here.
-func stationChebyshevG(n int, lar float64) []float64 {
-	beta := math.Log(1 / math.Tanh(lar/(40/math.Ln10)))
-	gamma := math.Sinh(beta / float64(2*n))
-	a := func(k int) float64 { return math.Sin(float64(2*k-1) * math.Pi / float64(2*n)) }
-	b := func(k int) float64 {
-		s := math.Sin(float64(k) * math.Pi / float64(n))
-		return gamma*gamma + s*s
-	}
-	g := make([]float64, n)
-	g[0] = 2 * a(1) / gamma
-	for k := 2; k <= n; k++ {
-		g[k-1] = 4 * a(k-1) * a(k) / (b(k-1) * g[k-2])
-	}
-	return g
-}
-
 // stationLadder reads a shunt-C-first lowpass ladder from the netlist by
 // its topology, walking from port in to port out: at each node the
 // capacitors to ground add up (parallel pairs are one element), then one
@@ -252,7 +227,7 @@ func TestStationLowpassPrototype(t *testing.T) {
 			if len(got) != d.n {
 				t.Fatalf("ladder has %d elements, the design line says n=%d", len(got), d.n)
 			}
-			g := stationChebyshevG(d.n, d.rippleDB)
+			g := chebyshevG(d.n, d.rippleDB)[1:] // g1…gn (Matthaei, Young & Jones 1964, sec. 4.05)
 			w := 2 * math.Pi * d.fc
 			for k, gk := range g {
 				want, what := gk/(w*d.r0), "C" // odd positions (1, 3, …): shunt C

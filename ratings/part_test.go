@@ -13,14 +13,14 @@ const goodNet = `title test filter
 port in n1 z=50
 port out n3 z=50
 material shopiron class=iron mu=9 tmax=130C flux=14mT@1M,3mT@30M note=shop_iron
-core t50 od=12.7mm id=7.7mm h=4.8mm material=iron-mu10
-core t68 od=17.5mm id=9.4mm h=4.8mm material=shopiron area=10cm2
+core KA od=12.7mm id=7.7mm h=4.8mm material=iron-mu10
+core KB od=17.5mm id=9.4mm h=4.8mm material=shopiron area=10cm2
 core box ae=20mm2 le=40mm al=4nH
 capacitor C1 n1 gnd 300p vpk=1kV irms=4@10M dielectric=mica
 capacitor C2 n2 gnd 560p dielectric=X7R
 capacitor C3 n3 gnd 100p
-inductor L1 n1 n2 0.91u core=t50 turns=14 wire=0.8mm
-inductor L2 n2 n3 0.91u core=t68 turns=12 wire=1mm q=400@7M
+inductor L1 n1 n2 0.91u core=KA turns=14 wire=0.8mm
+inductor L2 n2 n3 0.91u core=KB turns=12 wire=1mm q=400@7M
 inductor L3 n2 n3 0.5u
 inductor L4 n1 n3 1u core=box turns=30 wire=0.5mm irms=2@7M
 resistor R1 n3 gnd 10k pmax=2W

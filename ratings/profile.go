@@ -6,7 +6,6 @@ import (
 	"path/filepath"
 	"sort"
 	"strings"
-	"unicode"
 	"unicode/utf8"
 
 	"rfstress/circuits"
@@ -150,34 +149,6 @@ func LoadProfile(nameOrPath string, readFile func(string) ([]byte, error)) (*Pro
 	return parseProfile(nameOrPath, src)
 }
 
-type field struct {
-	text string
-	col  int
-}
-
-// fields splits a line into whitespace-separated fields with their
-// columns counted in characters from 1.
-func fields(s string) []field {
-	var out []field
-	col := 1
-	start, startCol := -1, 0
-	for i, r := range s {
-		if unicode.IsSpace(r) {
-			if start >= 0 {
-				out = append(out, field{s[start:i], startCol})
-				start = -1
-			}
-		} else if start < 0 {
-			start, startCol = i, col
-		}
-		col++
-	}
-	if start >= 0 {
-		out = append(out, field{s[start:], startCol})
-	}
-	return out
-}
-
 func parseProfile(path string, src []byte) (*Profile, error) {
 	var errs circuits.ErrorList
 	at := func(line, col int) circuits.Pos { return circuits.Pos{File: path, Line: line, Col: col} }
@@ -201,14 +172,14 @@ func parseProfile(path string, src []byte) (*Profile, error) {
 		if j := strings.IndexByte(body, '#'); j >= 0 {
 			body = body[:j]
 		}
-		fs := fields(body)
+		fs := circuits.Fields(body)
 		if len(fs) == 0 {
 			continue
 		}
-		key := fs[0].text
+		key := fs[0].Text
 		once := func(k string) bool {
 			if first, dup := seen[k]; dup {
-				add(at(ln, fs[0].col), "each setting once", "%s is already set at line %d", k, first)
+				add(at(ln, fs[0].Col), "each setting once", "%s is already set at line %d", k, first)
 				return false
 			}
 			seen[k] = ln
@@ -217,9 +188,9 @@ func parseProfile(path string, src []byte) (*Profile, error) {
 		switch key {
 		case "name", "base", "temp-margin":
 			if len(fs) != 2 {
-				c := fs[0].col
+				c := fs[0].Col
 				if len(fs) > 2 {
-					c = fs[2].col
+					c = fs[2].Col
 				}
 				add(at(ln, c), key+" and one value", "%s takes one value, found %d", key, len(fs)-1)
 				continue
@@ -230,25 +201,25 @@ func parseProfile(path string, src []byte) (*Profile, error) {
 			v := fs[1]
 			switch key {
 			case "name":
-				name = v.text
+				name = v.Text
 			case "base":
 				if factorsBegun {
-					add(at(ln, fs[0].col), "base before the first factor line", "base comes after factors and would undo them")
+					add(at(ln, fs[0].Col), "base before the first factor line", "base comes after factors and would undo them")
 					continue
 				}
-				if v.text == "none" {
+				if v.Text == "none" {
 					base = noneProfile()
-				} else if b, ok := builtinProfiles[v.text]; ok {
+				} else if b, ok := builtinProfiles[v.Text]; ok {
 					base = b.clone()
 				} else {
-					add(at(ln, v.col), "one of "+strings.Join(ProfileNames, ", "), "unknown base profile %q", v.text)
+					add(at(ln, v.Col), "one of "+strings.Join(ProfileNames, ", "), "unknown base profile %q", v.Text)
 				}
 			case "temp-margin":
-				m, err := circuits.ParseValue(v.text, "C")
+				m, err := circuits.ParseValue(v.Text, "C")
 				if err != nil {
-					add(at(ln, v.col), "a temperature margin in °C such as 15 or 15C", "bad temp-margin: %v", err)
+					add(at(ln, v.Col), "a temperature margin in °C such as 15 or 15C", "bad temp-margin: %v", err)
 				} else if m < 0 || m > 200 {
-					add(at(ln, v.col), "0 to 200 °C", "temp-margin %s is out of range", v.text)
+					add(at(ln, v.Col), "0 to 200 °C", "temp-margin %s is out of range", v.Text)
 				} else {
 					margin = &m
 				}
@@ -257,30 +228,30 @@ func parseProfile(path string, src []byte) (*Profile, error) {
 		}
 		qs, isClass := classQuantities[key]
 		if !isClass {
-			add(at(ln, fs[0].col), "name, base, temp-margin or a part class: "+strings.Join(Classes(), ", "), "unknown profile statement %q", key)
+			add(at(ln, fs[0].Col), "name, base, temp-margin or a part class: "+strings.Join(Classes(), ", "), "unknown profile statement %q", key)
 			continue
 		}
 		factorsBegun = true
 		if len(fs) != 3 {
-			c := fs[len(fs)-1].col
+			c := fs[len(fs)-1].Col
 			if len(fs) > 3 {
-				c = fs[3].col
+				c = fs[3].Col
 			}
 			add(at(ln, c), key+" QUANTITY FACTOR, e.g. "+key+" "+string(qs[0])+" 0.5", "a factor line takes a class, a quantity and a factor, found %d fields", len(fs))
 			continue
 		}
-		q := Quantity(fs[1].text)
+		q := Quantity(fs[1].Text)
 		if !hasQuantity(qs, q) {
-			add(at(ln, fs[1].col), "for "+key+": "+quantityList(qs), "quantity %q has no factor for %s", fs[1].text, key)
+			add(at(ln, fs[1].Col), "for "+key+": "+quantityList(qs), "quantity %q has no factor for %s", fs[1].Text, key)
 			continue
 		}
-		f, err := circuits.ParseValue(fs[2].text, "%")
+		f, err := circuits.ParseValue(fs[2].Text, "%")
 		if err != nil {
-			add(at(ln, fs[2].col), "a factor 0 < f ≤ 1 such as 0.5 or 50%", "bad factor: %v", err)
+			add(at(ln, fs[2].Col), "a factor 0 < f ≤ 1 such as 0.5 or 50%", "bad factor: %v", err)
 			continue
 		}
 		if !(f > 0 && f <= 1) {
-			add(at(ln, fs[2].col), "a factor 0 < f ≤ 1 such as 0.5 or 50%", "factor %s is out of range", fs[2].text)
+			add(at(ln, fs[2].Col), "a factor 0 < f ≤ 1 such as 0.5 or 50%", "factor %s is out of range", fs[2].Text)
 			continue
 		}
 		if !once(key + " " + string(q)) {

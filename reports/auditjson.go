@@ -18,49 +18,19 @@ func jsonNum(v float64) *float64 {
 	return &v
 }
 
-// QuantSet holds one value per quantity, in a fixed key order.
-type QuantSet struct {
-	Vpk   *float64 `json:"vpk,omitempty"`
-	Vrms  *float64 `json:"vrms,omitempty"`
-	Irms  *float64 `json:"irms,omitempty"`
-	Pdiss *float64 `json:"pdiss,omitempty"`
-	Bpk   *float64 `json:"bpk,omitempty"`
-	Temp  *float64 `json:"temp_c,omitempty"`
-	Jrms  *float64 `json:"jrms,omitempty"`
+// PerQuantity holds one T per quantity, in a fixed key order, leaving out
+// the quantities a part does not have.
+type PerQuantity[T comparable] struct {
+	Vpk   T `json:"vpk,omitempty"`
+	Vrms  T `json:"vrms,omitempty"`
+	Irms  T `json:"irms,omitempty"`
+	Pdiss T `json:"pdiss,omitempty"`
+	Bpk   T `json:"bpk,omitempty"`
+	Temp  T `json:"temp_c,omitempty"`
+	Jrms  T `json:"jrms,omitempty"`
 }
 
-// CaseSet holds one case description per quantity.
-type CaseSet struct {
-	Vpk   string `json:"vpk,omitempty"`
-	Vrms  string `json:"vrms,omitempty"`
-	Irms  string `json:"irms,omitempty"`
-	Pdiss string `json:"pdiss,omitempty"`
-	Bpk   string `json:"bpk,omitempty"`
-	Temp  string `json:"temp_c,omitempty"`
-	Jrms  string `json:"jrms,omitempty"`
-}
-
-func (s *QuantSet) set(q ratings.Quantity, v float64) {
-	p := jsonNum(v)
-	switch q {
-	case ratings.Vpk:
-		s.Vpk = p
-	case ratings.Vrms:
-		s.Vrms = p
-	case ratings.Irms:
-		s.Irms = p
-	case ratings.Pdiss:
-		s.Pdiss = p
-	case ratings.Bpk:
-		s.Bpk = p
-	case ratings.Temp:
-		s.Temp = p
-	case ratings.Jrms:
-		s.Jrms = p
-	}
-}
-
-func (s *CaseSet) set(q ratings.Quantity, v string) {
+func (s *PerQuantity[T]) set(q ratings.Quantity, v T) {
 	switch q {
 	case ratings.Vpk:
 		s.Vpk = v
@@ -78,6 +48,13 @@ func (s *CaseSet) set(q ratings.Quantity, v string) {
 		s.Jrms = v
 	}
 }
+
+// QuantSet holds one value per quantity (null-free: absent means the part
+// has no such stress).
+type QuantSet = PerQuantity[*float64]
+
+// CaseSet holds one case description per quantity.
+type CaseSet = PerQuantity[string]
 
 // JSONLimit is one rated quantity of a part.
 type JSONLimit struct {
@@ -182,7 +159,7 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 				if !ok {
 					continue
 				}
-				jc.Worst.set(q, st.Value)
+				jc.Worst.set(q, jsonNum(st.Value))
 				jc.Cases.set(q, s.Case(st.Case).Describe())
 				if st.Limit.Quantity == "" {
 					continue

@@ -85,14 +85,7 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 			Vrms: cmplx.Abs(ps.V), Vpk: math.Sqrt2 * cmplx.Abs(ps.V), Irms: cmplx.Abs(ps.I), Pdiss: ps.Ploss})
 	}
 	if *jsonPath != "" {
-		out, err := openOutput(*jsonPath, stdout, []string{file})
-		if err != nil {
-			return exitUsage, err
-		}
-		if err := reports.WriteSolveJSON(out, v); err != nil {
-			return exitUsage, err
-		}
-		if err := out.Close(); err != nil {
+		if err := writeTo(*jsonPath, stdout, []string{file}, func(w io.Writer) error { return reports.WriteSolveJSON(w, v) }); err != nil {
 			return exitUsage, err
 		}
 		if *jsonPath == "-" {
@@ -158,27 +151,13 @@ func runResponse(args []string, stdout, stderr io.Writer) (int, error) {
 		if *tsPath == "-" {
 			return exitUsage, usagef("--touchstone needs a file path")
 		}
-		out, err := openOutput(*tsPath, stdout, []string{file})
-		if err != nil {
-			return exitUsage, err
-		}
-		if err := reports.WriteTouchstone(out, v); err != nil {
+		if err := writeTo(*tsPath, stdout, []string{file}, func(w io.Writer) error { return reports.WriteTouchstone(w, v) }); err != nil {
 			return exitUsage, usageError{err}
-		}
-		if err := out.Close(); err != nil {
-			return exitUsage, err
 		}
 		wrote = true
 	}
 	if *csvPath != "" {
-		out, err := openOutput(*csvPath, stdout, []string{file})
-		if err != nil {
-			return exitUsage, err
-		}
-		if err := reports.WriteSweepCSV(out, v); err != nil {
-			return exitUsage, err
-		}
-		if err := out.Close(); err != nil {
+		if err := writeTo(*csvPath, stdout, []string{file}, func(w io.Writer) error { return reports.WriteSweepCSV(w, v) }); err != nil {
 			return exitUsage, err
 		}
 		if *csvPath == "-" {
