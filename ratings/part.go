@@ -325,7 +325,13 @@ func (p *Part) currentLimit(f float64, capacitor bool) Limit {
 		v, how = circuits.InterpLogLog(pts, f), "interpolated"
 	}
 	l.Abs, l.Derated = v, v*fac
-	l.Basis = fmt.Sprintf("irms=%s in netlist; at %s %s", a.Raw, circuits.FormatSI(f, "Hz"), how)
+	l.Basis = fmt.Sprintf("irms=%s in netlist; at %s %s", a.Raw, circuits.FormatHz(f), how)
+	if capacitor && p.Value > 0 && f > 0 {
+		// the current rating caps the RF voltage at V = I·Xc: at high
+		// frequency this binds before the voltage rating does
+		vpk := math.Sqrt2 * v / (2 * math.Pi * f * p.Value)
+		l.Basis += fmt.Sprintf("; limits the voltage to %s peak (I·Xc)", circuits.FormatSI(vpk, "V"))
+	}
 	return l
 }
 

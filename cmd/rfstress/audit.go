@@ -60,6 +60,14 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		return exitOK, err
 	}
 	files := fs.Args()
+	// every file read is an input the outputs must never overwrite
+	inputs := append([]string{}, files...)
+	if *materials != "" {
+		inputs = append(inputs, *materials)
+	}
+	if d, ok := vals["derate"]; ok && *d != "" {
+		inputs = append(inputs, *d)
+	}
 	if len(files) == 0 {
 		return exitUsage, usagef("audit needs at least one netlist file (see rfstress audit --help)")
 	}
@@ -150,7 +158,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 
 	wroteStdout := false
 	if *jsonPath != "" {
-		if err := writeTo(*jsonPath, stdout, files, func(w io.Writer) error {
+		if err := writeTo(*jsonPath, stdout, inputs, func(w io.Writer) error {
 			return reports.WriteAuditJSON(w, reports.AuditJSON(bank))
 		}); err != nil {
 			return exitUsage, err
@@ -158,7 +166,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		wroteStdout = wroteStdout || *jsonPath == "-"
 	}
 	if *csvPath != "" {
-		if err := writeTo(*csvPath, stdout, files, func(w io.Writer) error { return reports.WriteAuditCSV(w, bank) }); err != nil {
+		if err := writeTo(*csvPath, stdout, inputs, func(w io.Writer) error { return reports.WriteAuditCSV(w, bank) }); err != nil {
 			return exitUsage, err
 		}
 		wroteStdout = wroteStdout || *csvPath == "-"
@@ -168,7 +176,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 			return exitUsage, usagef("--report needs a file path")
 		}
 		doc := buildReportDoc(bank, engines, *caution)
-		if err := writeTo(*reportPath, stdout, files, func(w io.Writer) error { return writePDF(w, doc) }); err != nil {
+		if err := writeTo(*reportPath, stdout, inputs, func(w io.Writer) error { return writePDF(w, doc) }); err != nil {
 			return exitUsage, err
 		}
 	}
