@@ -53,9 +53,12 @@ func TestWorstEqualsBruteForce(t *testing.T) {
 			}
 		}
 	}
+	var worstErr float64
+	defer func() { t.Logf("largest relative difference from brute force: %.2g over %d cases", worstErr, fx.eng.NumCases()) }()
 	for k, p := range sec.Parts {
 		check := func(q ratings.Quantity, want float64) {
 			got := p.Stress[q].Value
+			worstErr = math.Max(worstErr, relErr(got, want))
 			if e := relErr(got, want); e > 1e-9 {
 				t.Errorf("%s %s: fast %g, brute force %g (rel %.2g)", p.Name, q, got, want, e)
 			}
