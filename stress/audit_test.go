@@ -54,7 +54,9 @@ func TestWorstEqualsBruteForce(t *testing.T) {
 		}
 	}
 	var worstErr float64
-	defer func() { t.Logf("largest relative difference from brute force: %.2g over %d cases", worstErr, fx.eng.NumCases()) }()
+	defer func() {
+		t.Logf("largest relative difference from brute force: %.2g over %d cases", worstErr, fx.eng.NumCases())
+	}()
 	for k, p := range sec.Parts {
 		check := func(q ratings.Quantity, want float64) {
 			got := p.Stress[q].Value
