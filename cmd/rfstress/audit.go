@@ -21,20 +21,20 @@ func init() {
 // conditionFlags are the flags that map one-to-one onto audit settings, so
 // a file's `audit` lines and the command line share one reader.
 var conditionFlags = []struct{ name, def, help string }{
-	{"power", "", "PEP in watts (default 100)"},
-	{"mode", "", "carrier, data, fm, cw, am or ssb: sets the average-to-PEP ratio (default carrier)"},
-	{"avg-ratio", "", "average-to-PEP power ratio, 0 < r ≤ 1 (overrides --mode)"},
-	{"drive", "", "available (power is the source's available power) or delivered (network absorbs it)"},
-	{"harmonics", "", "none, push-pull, single-ended, square, or dBc for 2nd,3rd,… e.g. -30,-12,-40 (default push-pull)"},
-	{"harmonic-max", "", "highest harmonic order audited (default 9)"},
-	{"band", "", "carrier band lo:hi, e.g. 10.1M:10.15M"},
-	{"freq", "", "a single carrier frequency instead of a band"},
-	{"points", "", "carrier frequencies across the band (default 7)"},
-	{"swr", "", "SWR of the load circle around the antenna port's z (default 1: matched only)"},
-	{"phases", "", "loads around the SWR circle (default 72)"},
-	{"faults", "", "antenna faults: open, short, open,short or none"},
-	{"derate", "", "derating profile: standard, strict, none, or a profile file (default standard)"},
-	{"ambient", "", "ambient temperature, °C (default 25)"},
+	{"power", "", "PEP in `watts` (default 100)"},
+	{"mode", "", "transmit `mode`: carrier, data, fm, cw, am or ssb; sets the average-to-PEP ratio (default carrier)"},
+	{"avg-ratio", "", "average-to-PEP power `ratio`, 0 < r ≤ 1 (overrides --mode)"},
+	{"drive", "", "drive `type`: available (power is the source's available power) or delivered (network absorbs it)"},
+	{"harmonics", "", "harmonic `levels`: none, push-pull, single-ended, square, or dBc for 2nd,3rd,… e.g. -30,-12,-40 (default push-pull)"},
+	{"harmonic-max", "", "highest harmonic `order` audited (default 9)"},
+	{"band", "", "carrier band `lo:hi`, e.g. 10.1M:10.15M"},
+	{"freq", "", "a single carrier `frequency` instead of a band"},
+	{"points", "", "`number` of carrier frequencies across the band (default 7)"},
+	{"swr", "", "`SWR` of the load circle around the antenna port's z (default 1: matched only)"},
+	{"phases", "", "`number` of loads around the SWR circle (default 72)"},
+	{"faults", "", "antenna `faults`: open, short, open,short or none"},
+	{"derate", "", "derating `profile`: standard, strict, none, or a profile file (default standard)"},
+	{"ambient", "", "ambient temperature in `°C` (default 25)"},
 }
 
 func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
@@ -46,15 +46,15 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	for _, f := range conditionFlags {
 		vals[f.name] = fs.String(f.name, f.def, f.help)
 	}
-	loads := fs.StringArray("load", nil, "explicit antenna load, complex allowed (repeatable): 12.5-j180")
-	also := fs.StringArray("carrier-also", nil, "extra carrier outside the band, e.g. a wrong filter selected (repeatable)")
-	materials := fs.String("materials", "", "file of extra core materials (material lines)")
+	loads := fs.StringArray("load", nil, "explicit antenna `load`, complex allowed (repeatable): 12.5-j180")
+	also := fs.StringArray("carrier-also", nil, "extra carrier `frequency` outside the band, e.g. a wrong filter selected (repeatable)")
+	materials := fs.String("materials", "", "`file` of extra core materials (material lines)")
 	allowUnrated := fs.Bool("allow-unrated", false, "let unrated parts pass the overall verdict")
-	failOn := fs.String("fail-on", "unrated", "lowest verdict that makes the exit status 1: unrated, marginal, fail or never")
-	caution := fs.Float64("caution-volts", 300, "print a caution when any node exceeds this peak voltage")
-	jsonPath := fs.String("json", "", "write JSON to PATH, or - for stdout")
-	csvPath := fs.String("csv", "", "write the part table as CSV to PATH, or - for stdout")
-	reportPath := fs.String("report", "", "write the PDF stress report to PATH")
+	failOn := fs.String("fail-on", "unrated", "lowest `verdict` that makes the exit status 1: unrated, marginal, fail or never")
+	caution := fs.Float64("caution-volts", 300, "print a caution when any node exceeds this peak `volts`")
+	jsonPath := fs.String("json", "", "write JSON to `PATH`, or - for stdout")
+	csvPath := fs.String("csv", "", "write the part table as CSV to `PATH`, or - for stdout")
+	reportPath := fs.String("report", "", "write the PDF stress report to `PATH`")
 	tol := addTolFlags(fs)
 	if help, err := parseFlags(fs, args); help || err != nil {
 		return exitOK, err

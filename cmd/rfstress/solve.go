@@ -36,10 +36,10 @@ func parseLoad(s string) (circuits.Load, string, error) {
 func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 	fs := newFlags("solve", "solve FILE --freq F [--power W] [--load Z] [--json PATH|-]",
 		"Solves the netlist at one frequency with the transmitter at port in (its power given as\navailable power from a source of the port's impedance) and the antenna port loaded by\nits own z or by --load.", stdout)
-	freq := fs.String("freq", "", "carrier frequency, e.g. 10.1M (required)")
-	power := fs.Float64("power", 100, "available power from the transmitter, W")
-	load := fs.String("load", "", "antenna-port load: impedance (12.5-j180), open or short; default the port's z")
-	jsonPath := fs.String("json", "", "write JSON to PATH, or - for stdout")
+	freq := fs.String("freq", "", "carrier `frequency`, e.g. 10.1M (required)")
+	power := fs.Float64("power", 100, "available power from the transmitter in `watts`")
+	load := fs.String("load", "", "antenna-port `load`: impedance (12.5-j180), open or short; default the port's z")
+	jsonPath := fs.String("json", "", "write JSON to `PATH`, or - for stdout")
 	if help, err := parseFlags(fs, args); help || err != nil {
 		return exitOK, err
 	}
@@ -98,12 +98,12 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 func runResponse(args []string, stdout, stderr io.Writer) (int, error) {
 	fs := newFlags("response", "response FILE [--from F] [--to F] [--points N] [--log] [--csv PATH|-] [--touchstone PATH]",
 		"Sweeps the netlist's two-port response between its ports, each port terminated in its\nown z. Touchstone output follows the Touchstone 2.0 specification (IBIS Open Forum).", stdout)
-	from := fs.String("from", "1M", "start frequency")
-	to := fs.String("to", "60M", "stop frequency")
-	points := fs.Int("points", 401, "number of frequencies")
+	from := fs.String("from", "1M", "start `frequency`")
+	to := fs.String("to", "60M", "stop `frequency`")
+	points := fs.Int("points", 401, "`number` of frequencies")
 	logSweep := fs.Bool("log", false, "space frequencies logarithmically")
-	csvPath := fs.String("csv", "", "write CSV to PATH, or - for stdout")
-	tsPath := fs.String("touchstone", "", "write a Touchstone 2.0 file to PATH")
+	csvPath := fs.String("csv", "", "write CSV to `PATH`, or - for stdout")
+	tsPath := fs.String("touchstone", "", "write a Touchstone 2.0 file to `PATH`")
 	if help, err := parseFlags(fs, args); help || err != nil {
 		return exitOK, err
 	}

@@ -25,10 +25,10 @@ type tolFlags struct {
 
 func addTolFlags(fs *pflag.FlagSet) *tolFlags {
 	t := &tolFlags{}
-	fs.IntVar(&t.trials, "trials", 0, "tolerance analysis: number of Monte Carlo trials (parts' tol= and qtol=)")
-	fs.Uint64Var(&t.seed, "seed", 1, "random seed of the tolerance trials")
-	fs.StringVar(&t.dist, "dist", "normal", "tolerance distribution: normal (±tol is 3σ) or uniform (flat within ±tol)")
-	fs.IntVar(&t.workers, "workers", 0, "parallel workers for the trials (default: all cores)")
+	fs.IntVar(&t.trials, "trials", 0, "tolerance analysis: `number` of Monte Carlo trials (parts' tol= and qtol=)")
+	fs.Uint64Var(&t.seed, "seed", 1, "random `seed` of the tolerance trials")
+	fs.StringVar(&t.dist, "dist", "normal", "tolerance `distribution`: normal (±tol is 3σ) or uniform (flat within ±tol)")
+	fs.IntVar(&t.workers, "workers", 0, "parallel `workers` for the trials (default: all cores)")
 	fs.BoolVar(&t.quiet, "quiet", false, "no progress bar")
 	return t
 }
