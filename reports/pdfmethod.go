@@ -13,30 +13,23 @@ import (
 // out. It describes the model; the numbers it prints are the profile's.
 func (p *pdfw) method() {
 	p.newPage("Method and assumptions")
-	p.sub("Circuit, losses and source", 12)
-	for _, s := range []string{
+	p.bullets("Circuit, losses and source",
 		"Each netlist is solved by modified nodal analysis at every carrier frequency and at every harmonic of it; the response plots use the two-port (ABCD and S-parameter) relations.",
 		"Inductor loss is a series resistance R = ωL/Q(f), with Q interpolated log-log between the given points and held beyond them. For a wound inductor the AC resistance of its copper (annealed copper resistivity, with skin effect) is a floor under that loss.",
 		"Capacitor loss is a series resistance ESR = 1/(ωC·Q(f)), or the esr= given, or tan δ/(ωC) from df=. Parts without a loss figure get a typical Q for their kind and dielectric, chosen on the low side so losses are not understated.",
 		"The transmitter is an EMF behind its port impedance Z. The power given is the available power P, so the EMF is 2√(P·Re Z) RMS. With drive=delivered the EMF is scaled instead until the network takes P (never beyond 1000 times the available power).",
-	} {
-		p.bullet(8.5, s)
-	}
-	p.sub("Harmonics and loads", 12)
-	for _, s := range []string{
+	)
+	p.bullets("Harmonics and loads",
 		"Each harmonic n of the carrier is driven as a source of its own at n·f, at the preset or given level in dB below the carrier's available power.",
 		"Combination over carrier and harmonics: peak values add as if every harmonic peaked at the same instant (the worst phase), RMS values add as the root of the sum of squares, dissipations add.",
-		"The antenna port sees the matched load; every load on the SWR circle, described by the power-wave reflection coefficient Γ = (Z − Z0)/(Z + Z0*); any explicit loads; and, when asked, the antenna open and shorted. On the circle, each part's worst phase is found on the continuous circle, not only at the sampled phases.",
+		"The antenna port sees the matched load; every load on the SWR circle, described by Γ = (Z − Z0)/(Z + Z0*), the power-wave reflection coefficient taken with reference Z0* so that it vanishes at the antenna's own impedance; any explicit loads; and, when asked, the antenna open and shorted. On the circle, each part's worst phase is found on the continuous circle, not only at the sampled phases.",
 		"At harmonics the load is unknown, so each harmonic is taken at its own worst load over the continuous SWR circle, independently of the carrier and of the other harmonics: a safe upper bound.",
 		"Voltage-type stress (peak and RMS voltage, peak flux density) is taken at PEP. Heating-type stress (RMS current, dissipation, temperature, current density) is taken at the average power: PEP times the mode's average-to-PEP ratio.",
 		"Flux density is the winding's flux linkage over turns and effective core area (the transformer EMF equation), with toroid area and path length from the core dimensions. Core temperature is ambient plus a still-air rise estimated from dissipation and wound surface, ΔT ≈ (P[mW]/A[cm²])^0.833 (common practice).",
 		"A stress up to the derated limit (rating × derating factor) is ok, up to the rating marginal, past the rating a failure; a stressed quantity that has no rating is unrated. The safe power is the PEP at which the first rated quantity meets its derated limit: voltages, currents and flux grow with √P, dissipation with P, temperature rise with P^0.833. Ratings to buy are rounded up to common series (capacitor working voltages, the R10 preferred numbers for currents, usual resistor wattages).",
-	} {
-		p.bullet(8.5, s)
-	}
+	)
 	p.profiles()
-	p.sub("Published sources used", 12)
-	for _, s := range []string{
+	p.bullets("Published sources used",
 		"C.-W. Ho, A. E. Ruehli, P. A. Brennan, “The modified nodal approach to network analysis”, IEEE Transactions on Circuits and Systems, 1975: the circuit equations.",
 		"D. M. Pozar, Microwave Engineering: ABCD and S-parameter relations of two-ports.",
 		"G. L. Matthaei, L. Young, E. M. T. Jones, Microwave Filters, Impedance-Matching Networks, and Coupling Structures, 1964: filter prototypes behind the example netlists.",
@@ -47,18 +40,13 @@ func (p *pdfw) method() {
 		"ISO 3 preferred numbers (R10): current ratings to buy.",
 		"Touchstone File Format Specification 2.0: the sweep export.",
 		"reproducible-builds.org, SOURCE_DATE_EPOCH specification: the report's date.",
-	} {
-		p.bullet(8.5, s)
-	}
-	p.sub("What the estimate does not cover", 12)
-	for _, s := range []string{
+	)
+	p.bullets("What the estimate does not cover",
 		"Arcing across board gaps, switch and relay contacts (including switching while transmitting), and corona.",
 		"Self-resonance and parasitic inductance and capacitance of parts and wiring, unless they are modelled in the netlist.",
 		"Drift of part values with temperature and voltage; thermal time constants (every temperature here is a steady state).",
 		"Intermodulation and any non-linear part; RF exposure and specific absorption rate (SAR) near antennas; mains and high-voltage supplies.",
-	} {
-		p.bullet(8.5, s)
-	}
+	)
 	p.f.Ln(2)
 	p.font("B", 8.5)
 	p.f.SetX(marginL)
@@ -200,4 +188,12 @@ func wrapRunes(s string, n int) []string {
 		r = r[n:]
 	}
 	return append(out, string(r))
+}
+
+// bullets writes a sub-heading and its bulleted paragraphs.
+func (p *pdfw) bullets(title string, items ...string) {
+	p.sub(title, 12)
+	for _, s := range items {
+		p.bullet(8.5, s)
+	}
 }
