@@ -5,40 +5,16 @@ import (
 	"math"
 )
 
-// DefaultInductorQ is the Q assumed for an inductor with no q= given: a
-// middling figure for a wound toroid at HF (common practice, from memory:
-// such coils measure roughly 100 to 250).
-const DefaultInductorQ = 100
-
-// defaultCapQ is the Q assumed for a capacitor with no q=, esr= or df=, by
-// dielectric class. Figures are typical HF values from memory (common
-// practice), chosen on the low side so losses are not understated.
-var defaultCapQ = map[string]float64{
-	"c0g": 1000, "np0": 1000, "mica": 1000, "porcelain": 2000, "film": 500,
-	"glass": 1500, "air": 5000, "vacuum": 5000,
-	"x7r": 40, "x5r": 40, "y5v": 15, "z5u": 15,
-}
-
-// genericCapQ applies when no dielectric is named.
-const genericCapQ = 500
-
-// DefaultCapacitorQ returns the Q assumed for a capacitor of the given
-// dielectric class ("" for unknown) when the netlist gives no loss figure.
-func DefaultCapacitorQ(dielectric string) float64 {
-	if q, ok := defaultCapQ[dielectric]; ok {
-		return q
-	}
-	return genericCapQ
-}
-
 // Element is a component prepared for the solver.
 type Element struct {
 	Comp   *Component
 	Kind   Kind
+	Model  Model
 	Name   string
-	A, B   int     // node indices; -1 is ground
+	A, B   int     // node indices of the first two terminals; -1 is ground
+	Nodes  []int   // every terminal's node index, in statement order
 	Value  float64 // F, H or Ω
-	Branch int     // inductors: index of the branch-current unknown
+	Branch int     // first branch-current unknown (−1 when it has none)
 	q      []Point // Q against frequency (constant when one point)
 	qScale float64
 	esr    float64
@@ -59,7 +35,7 @@ type Circuit struct {
 	In, Out  int // node indices of the ports
 	Zin      complex128
 	Zout     complex128
-	nInd     int
+	nBranch  int
 }
 
 // Build prepares a parsed netlist for solving.
@@ -75,33 +51,28 @@ func Build(nl *Netlist) (*Circuit, error) {
 	c.In, c.Out = idx[nl.In.Node], idx[nl.Out.Node]
 	c.Zin, c.Zout = nl.In.Z, nl.Out.Z
 	byName := map[string]int{}
+	next := len(nl.Nodes) // branch unknowns follow the node voltages
 	for _, comp := range nl.Components {
-		e := Element{Comp: comp, Kind: comp.Kind, Name: comp.Name, A: idx[comp.A], B: idx[comp.B], Value: comp.Value, Branch: -1, qScale: 1}
-		if a, ok := comp.Attrs["q"]; ok {
-			e.q = a.Points
+		spec := SpecOf(comp.Kind)
+		if spec == nil {
+			return nil, fmt.Errorf("%s: no solver model for %s", comp.Pos, comp.Kind)
 		}
-		if v, ok := comp.Attrs.Num("esr"); ok {
-			e.esr = v
+		e := Element{Comp: comp, Kind: comp.Kind, Model: spec.Model, Name: comp.Name, Value: comp.Value, Branch: -1, qScale: 1}
+		for _, n := range comp.Terminals() {
+			e.Nodes = append(e.Nodes, idx[n])
 		}
-		if v, ok := comp.Attrs.Num("df"); ok {
-			e.df = v
+		e.A, e.B = e.Nodes[0], e.Nodes[1]
+		if spec.Prepare != nil {
+			spec.Prepare(&e)
 		}
-		switch comp.Kind {
-		case Inductor:
-			if e.q == nil {
-				e.q = []Point{{V: DefaultInductorQ}}
-			}
-			e.Branch = len(nl.Nodes) + c.nInd
-			c.nInd++
-		case Capacitor:
-			if e.q == nil && e.esr == 0 && e.df == 0 {
-				d, _ := comp.Attrs.Word("dielectric")
-				e.q = []Point{{V: DefaultCapacitorQ(d)}}
-			}
+		if nb := spec.Model.Branches(&e); nb > 0 {
+			e.Branch = next
+			next += nb
 		}
 		byName[comp.Name] = len(c.Elements)
 		c.Elements = append(c.Elements, e)
 	}
+	c.nBranch = next - len(nl.Nodes)
 	for _, k := range nl.Couplings {
 		i, ok1 := byName[k.L1]
 		j, ok2 := byName[k.L2]
@@ -114,7 +85,7 @@ func Build(nl *Netlist) (*Circuit, error) {
 }
 
 // Size is the number of MNA unknowns without a load branch.
-func (c *Circuit) Size() int { return len(c.Nodes) + c.nInd }
+func (c *Circuit) Size() int { return len(c.Nodes) + c.nBranch }
 
 // Q returns the element's Q at f: log Q interpolated against log f between
 // the given points, held at the end values outside them.
@@ -147,36 +118,32 @@ func interpLogLog(pts []Point, f float64) float64 {
 // guides, current ratings) so every frequency table reads the same way.
 func InterpLogLog(pts []Point, f float64) float64 { return interpLogLog(pts, f) }
 
-// LossR is the series loss resistance at f: ωL/Q for an inductor,
-// 1/(ωCQ) (or esr, or tanδ/(ωC)) for a capacitor, R for a resistor.
-func (e *Element) LossR(f float64) float64 {
-	w := 2 * math.Pi * f
-	switch e.Kind {
-	case Inductor:
-		return w * e.Value / e.Q(f)
-	case Capacitor:
-		switch {
-		case e.esr > 0:
-			return e.esr / e.qScale
-		case e.df > 0:
-			return e.df / (w * e.Value) / e.qScale
-		default:
-			return 1 / (w * e.Value * e.Q(f))
-		}
-	}
-	return e.Value
-}
+// LossR is the series-equivalent loss resistance at f (see Model.LossR).
+func (e *Element) LossR(f float64) float64 { return e.Model.LossR(e, f) }
 
-// Impedance of a two-terminal element at f, loss included.
-func (e *Element) Impedance(f float64) complex128 {
-	w := 2 * math.Pi * f
-	switch e.Kind {
-	case Inductor:
-		return complex(e.LossR(f), w*e.Value)
-	case Capacitor:
-		return complex(e.LossR(f), -1/(w*e.Value))
+// prepareLoss reads the loss figures of a capacitor or inductor: q= (or a
+// default by kind and dielectric), esr=, df=.
+func prepareLoss(e *Element) {
+	comp := e.Comp
+	if a, ok := comp.Attrs["q"]; ok {
+		e.q = a.Points
 	}
-	return complex(e.Value, 0)
+	if v, ok := comp.Attrs.Num("esr"); ok {
+		e.esr = v
+	}
+	if v, ok := comp.Attrs.Num("df"); ok {
+		e.df = v
+	}
+	if e.q != nil || e.esr != 0 || e.df != 0 {
+		return
+	}
+	switch comp.Kind {
+	case Inductor:
+		e.q = []Point{{V: DefaultInductorQ}}
+	case Capacitor:
+		d, _ := comp.Attrs.Word("dielectric")
+		e.q = []Point{{V: DefaultCapacitorQ(d)}}
+	}
 }
 
 // Mutual returns M between inductor elements i and j (0 if uncoupled).
@@ -222,47 +189,25 @@ var OpenLoad = Load{Open: true}
 // stamp fills the MNA matrix at f. With a load (not open) one more unknown
 // carries the load current, so a short (Z = 0) needs no special case.
 func (c *Circuit) stamp(m []complex128, n int, f float64, load *Load) {
-	for i := range m {
-		m[i] = 0
-	}
+	s := &System{N: n, M: m}
+	s.clear()
 	w := 2 * math.Pi * f
-	add := func(r, col int, v complex128) {
-		if r >= 0 && col >= 0 {
-			m[r*n+col] += v
-		}
-	}
-	admit := func(a, b int, y complex128) {
-		add(a, a, y)
-		add(b, b, y)
-		add(a, b, -y)
-		add(b, a, -y)
-	}
 	for i := range c.Elements {
 		e := &c.Elements[i]
-		switch e.Kind {
-		case Inductor:
-			k := e.Branch
-			add(e.A, k, 1)
-			add(e.B, k, -1)
-			add(k, e.A, 1)
-			add(k, e.B, -1)
-			add(k, k, -complex(e.LossR(f), w*e.Value))
-		default:
-			admit(e.A, e.B, 1/e.Impedance(f))
-		}
+		e.Model.Stamp(e, s, f)
 	}
 	for _, mu := range c.mutuals {
 		M := mu.k * math.Sqrt(c.Elements[mu.i].Value*c.Elements[mu.j].Value)
 		bi, bj := c.Elements[mu.i].Branch, c.Elements[mu.j].Branch
-		add(bi, bj, complex(0, -w*M))
-		add(bj, bi, complex(0, -w*M))
+		s.Add(bi, bj, complex(0, -w*M))
+		s.Add(bj, bi, complex(0, -w*M))
 	}
-	admit(c.In, -1, 1/c.Zin)
+	s.Admit(c.In, -1, 1/c.Zin)
 	if load != nil && !load.Open {
 		k := c.Size()
-		add(c.Out, k, 1)
-		add(k, c.Out, 1)
-		add(k, k, -load.Z)
+		s.Add(c.Out, k, 1)
+		s.Add(k, c.Out, 1)
+		s.Add(k, k, -load.Z)
 	}
 }
 
@@ -327,7 +272,10 @@ func (c *Circuit) EMFForPower(p float64) float64 {
 type PartState struct {
 	V, I   complex128 // across (A minus B) and through (A to B)
 	Lambda complex128 // flux linkage L·I + ΣM·I (inductors only)
-	Ploss  float64    // |I|²·R_loss
+	// V2, I2 are the second port's voltage and the current into it, for
+	// two-port kinds (lines, measured blocks); zero for two-terminal parts.
+	V2, I2 complex128
+	Ploss  float64 // |I|²·R_loss
 }
 
 func nodeV(x []complex128, i int) complex128 {
@@ -339,23 +287,13 @@ func nodeV(x []complex128, i int) complex128 {
 
 // PartStates reads element states out of a solution vector x at f.
 func (c *Circuit) PartStates(x []complex128, f float64, out []PartState) {
-	w := 2 * math.Pi * f
 	for i := range c.Elements {
 		e := &c.Elements[i]
-		v := nodeV(x, e.A) - nodeV(x, e.B)
-		var cur complex128
-		var lam complex128
-		switch e.Kind {
-		case Inductor:
-			cur = x[e.Branch]
-			lam = complex(e.Value, 0) * cur
-		default:
-			cur = v / e.Impedance(f)
-		}
-		r := e.LossR(f)
-		out[i] = PartState{V: v, I: cur, Lambda: lam, Ploss: r * (real(cur)*real(cur) + imag(cur)*imag(cur))}
+		st := e.Model.State(e, x, f)
+		r := e.Model.LossR(e, f)
+		st.Ploss = r * (real(st.I)*real(st.I) + imag(st.I)*imag(st.I))
+		out[i] = st
 	}
-	_ = w
 	for _, mu := range c.mutuals {
 		M := complex(mu.k*math.Sqrt(c.Elements[mu.i].Value*c.Elements[mu.j].Value), 0)
 		out[mu.i].Lambda += M * out[mu.j].I

@@ -104,21 +104,24 @@ func (a Attrs) Word(key string) (string, bool) {
 // Kind names a component kind as written in the netlist.
 type Kind string
 
-// The component kinds.
-const (
-	Capacitor Kind = "capacitor"
-	Inductor  Kind = "inductor"
-	Resistor  Kind = "resistor"
-)
-
-// Component is a two-terminal part.
+// Component is one element statement: a part (the kinds are registered
+// in kind.go, one file per kind).
 type Component struct {
 	Name  string
 	Kind  Kind
-	A, B  string // nodes
-	Value float64
+	A, B  string   // the first two terminals' nodes
+	Nodes []string // every terminal's node, in statement order
+	Value float64  // 0 for kinds without a value field
 	Pos   Pos
 	Attrs Attrs
+}
+
+// Terminals returns the component's nodes in statement order.
+func (c *Component) Terminals() []string {
+	if len(c.Nodes) > 0 {
+		return c.Nodes
+	}
+	return []string{c.A, c.B}
 }
 
 // Port is the transmitter (in) or antenna (out) connection.
@@ -331,6 +334,9 @@ func (p *parser) line(ln int, raw string) {
 		fields = append(fields, rest[0])
 		rest = rest[1:]
 	}
+	if ks := SpecOf(Kind(kw.Text)); ks != nil {
+		spec.Fields, _ = fieldsFor(ks, len(fields))
+	}
 	if len(fields) != len(spec.Fields) {
 		at := kw.Col
 		if len(fields) > len(spec.Fields) {
@@ -469,24 +475,43 @@ func (p *parser) coupling(ln int, f []Field, attrs Attrs) {
 }
 
 func (p *parser) component(ln int, kind Kind, f []Field, attrs Attrs) {
+	spec := SpecOf(kind)
 	okName := p.declare(p.names, "part", f[0], ln)
 	if okName {
 		p.partKind[f[0].Text] = kind
 	}
-	a, okA := p.useNode(f[1], ln)
-	b, okB := p.useNode(f[2], ln)
-	if okA && okB && a == b {
-		p.errorf(p.pos(ln, f[2].Col), "two different nodes", "%s %s is connected to itself (both ends on %s)", kind, f[0].Text, a)
+	var nodes []string
+	nodesOK := true
+	var value *Field
+	layout, _ := fieldsFor(spec, len(f))
+	for i, name := range layout {
+		switch name {
+		case "node":
+			n, ok := p.useNode(f[i], ln)
+			nodesOK = nodesOK && ok
+			for _, m := range nodes {
+				if ok && m == n {
+					p.errorf(p.pos(ln, f[i].Col), "two different nodes", "%s %s is connected to itself (both ends on %s)", kind, f[0].Text, n)
+					nodesOK = false
+				}
+			}
+			nodes = append(nodes, n)
+		case "value":
+			value = &f[i]
+		}
 	}
-	units := map[Kind][]string{Capacitor: {"F"}, Inductor: {"H"}, Resistor: {"ohm"}}[kind]
-	v, err := ParseValue(f[3].Text, units...)
 	valueOK := true
-	if err != nil {
-		p.errorf(p.pos(ln, f[3].Col), "a value such as "+exampleValue(kind), "bad %s value: %v", kind, err)
-		valueOK = false
-	} else if v <= 0 {
-		p.errorf(p.pos(ln, f[3].Col), "a value above zero, such as "+exampleValue(kind), "%s value %s is not positive", kind, f[3].Text)
-		valueOK = false
+	var v float64
+	if value != nil {
+		var err error
+		v, err = ParseValue(value.Text, spec.Unit)
+		if err != nil {
+			p.errorf(p.pos(ln, value.Col), "a value such as "+spec.Example, "bad %s value: %v", kind, err)
+			valueOK = false
+		} else if v <= 0 {
+			p.errorf(p.pos(ln, value.Col), "a value above zero, such as "+spec.Example, "%s value %s is not positive", kind, value.Text)
+			valueOK = false
+		}
 	}
 	n := 0
 	for _, k := range []string{"q", "esr", "df"} {
@@ -497,21 +522,11 @@ func (p *parser) component(ln int, kind Kind, f []Field, attrs Attrs) {
 	if n > 1 {
 		p.errorf(p.pos(ln, f[0].Col), "one of q=, esr=, df=", "%s %s gives more than one loss figure", kind, f[0].Text)
 	}
-	if okName && valueOK {
+	if okName && valueOK && nodesOK && len(nodes) >= 2 {
 		p.nl.Components = append(p.nl.Components, &Component{
-			Name: f[0].Text, Kind: kind, A: a, B: b, Value: v, Pos: p.pos(ln, f[0].Col), Attrs: attrs,
+			Name: f[0].Text, Kind: kind, A: nodes[0], B: nodes[1], Nodes: nodes, Value: v, Pos: p.pos(ln, f[0].Col), Attrs: attrs,
 		})
 	}
-}
-
-func exampleValue(k Kind) string {
-	switch k {
-	case Capacitor:
-		return "300p"
-	case Inductor:
-		return "0.91u"
-	}
-	return "2.2k"
 }
 
 // attrs reads key=value tokens against the keyword's table.
@@ -749,7 +764,10 @@ func (p *parser) check() {
 		adj[b] = append(adj[b], a)
 	}
 	for _, c := range nl.Components {
-		link(c.A, c.B)
+		ts := c.Terminals()
+		for _, t := range ts[1:] {
+			link(ts[0], t)
+		}
 	}
 	link(nl.In.Node, Ground)
 	link(nl.Out.Node, Ground)

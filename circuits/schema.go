@@ -48,38 +48,8 @@ type Keyword struct {
 
 var lengthUnit = []string{"m"}
 
-// ratingAttrs are read by the ratings layer; the parser checks their syntax.
-var capacitorAttrs = map[string]AttrSpec{
-	"q":          {Type: TPoints, Help: "Q, or Q@frequency points such as 90@3.5M,180@10M"},
-	"esr":        {Type: TPositive, Units: []string{"ohm"}, Help: "series resistance in Ω"},
-	"df":         {Type: TPositive, Units: []string{"%"}, Help: "dissipation factor tan δ, e.g. 0.001 or 0.1%"},
-	"vpk":        {Type: TPositive, Units: []string{"V"}, Help: "rated peak voltage in V"},
-	"vrms":       {Type: TPositive, Units: []string{"V"}, Help: "rated RMS voltage in V"},
-	"irms":       {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A, optionally at a frequency: 4@10M"},
-	"pmax":       {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W"},
-	"dielectric": {Type: TWord, Help: "a dielectric class: c0g, np0, mica, porcelain, film, glass, air, vacuum, x7r, x5r, y5v, z5u"},
-	"tol":        {Type: TPercent, Help: "value tolerance such as 5%"},
-	"qtol":       {Type: TPercent, Help: "Q tolerance such as 20%"},
-}
-
-var inductorAttrs = map[string]AttrSpec{
-	"q":     {Type: TPoints, Help: "Q, or Q@frequency points such as 90@3.5M,180@10M"},
-	"core":  {Type: TWord, Help: "the name of a core statement"},
-	"turns": {Type: TInt, Help: "number of turns, a whole number"},
-	"wire":  {Type: TPositive, Units: lengthUnit, NeedUnit: true, Help: "wire diameter with a unit, e.g. 0.8mm"},
-	"irms":  {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A"},
-	"tol":   {Type: TPercent, Help: "value tolerance such as 5%"},
-	"qtol":  {Type: TPercent, Help: "Q tolerance such as 20%"},
-}
-
-var resistorAttrs = map[string]AttrSpec{
-	"pmax": {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W"},
-	"vpk":  {Type: TPositive, Units: []string{"V"}, Help: "maximum working peak voltage in V"},
-	"tol":  {Type: TPercent, Help: "value tolerance such as 5%"},
-}
-
-// Keywords is the whole statement table. Adding a component kind starts
-// here (see DEVELOPERS.md).
+// Keywords is the statement table. Element kinds add their own keyword
+// when they register (kind.go); the rest are declarations and directives.
 var Keywords = map[string]Keyword{
 	"title": {},
 	"port": {Fields: []string{"in|out", "node"}, Attrs: map[string]AttrSpec{
@@ -96,9 +66,6 @@ var Keywords = map[string]Keyword{
 		"material": {Type: TWord, Help: "a material name, built in or from a material statement"},
 		"area":     {Type: TPositive, Units: []string{"mm2"}, NeedUnit: true, Help: "wound surface area for cooling, e.g. 900mm2 or 9cm2"},
 	}},
-	"capacitor": {Fields: []string{"name", "node", "node", "value"}, Attrs: capacitorAttrs},
-	"inductor":  {Fields: []string{"name", "node", "node", "value"}, Attrs: inductorAttrs},
-	"resistor":  {Fields: []string{"name", "node", "node", "value"}, Attrs: resistorAttrs},
 	"coupling": {Fields: []string{"name", "inductor", "inductor"}, Attrs: map[string]AttrSpec{
 		"k": {Type: TNumber, Help: "coupling coefficient between 0 and 1"},
 	}, Required: []string{"k"}},

@@ -17,7 +17,8 @@ type Split struct {
 	F        float64
 	Voc, Zth complex128 // Thevenin equivalent at the antenna port
 	V, I, L  [2][]complex128
-	R        []float64 // loss resistance per element at F
+	V2, I2   [2][]complex128 // second-port states of two-port kinds
+	R        []float64       // loss resistance per element at F
 	Node     [2][]complex128
 	Vin      [2]complex128
 	Zs       complex128
@@ -31,6 +32,8 @@ func NewSplit(c *Circuit) *Split {
 		s.V[k] = make([]complex128, n)
 		s.I[k] = make([]complex128, n)
 		s.L[k] = make([]complex128, n)
+		s.V2[k] = make([]complex128, n)
+		s.I2[k] = make([]complex128, n)
 		s.Node[k] = make([]complex128, nn)
 	}
 	return s
@@ -79,6 +82,7 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 		c.PartStates(x, f, w.parts)
 		for i, ps := range w.parts {
 			s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
+			s.V2[k][i], s.I2[k][i] = ps.V2, ps.I2
 		}
 		copy(s.Node[k], x[:len(c.Nodes)])
 		s.Vin[k] = x[c.In]
@@ -113,7 +117,9 @@ func (s *Split) Part(i int, alpha, e complex128) PartState {
 	v := (s.V[0][i] + alpha*s.V[1][i]) * e
 	cur := (s.I[0][i] + alpha*s.I[1][i]) * e
 	lam := (s.L[0][i] + alpha*s.L[1][i]) * e
-	return PartState{V: v, I: cur, Lambda: lam, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
+	v2 := (s.V2[0][i] + alpha*s.V2[1][i]) * e
+	i2 := (s.I2[0][i] + alpha*s.I2[1][i]) * e
+	return PartState{V: v, I: cur, Lambda: lam, V2: v2, I2: i2, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
 }
 
 // InputPower is the power the source delivers into the network (load

@@ -1,0 +1,85 @@
+package circuits
+
+import "math"
+
+// Capacitor: a two-terminal admittance, C with its loss as a series
+// resistance (from q=, esr= or df=, or a dielectric's typical Q).
+const Capacitor Kind = "capacitor"
+
+func init() {
+	Register(&KindSpec{
+		Kind: Capacitor, Unit: "F", Example: "300p", Model: capacitorModel{},
+		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: capacitorAttrs},
+		Prepare: prepareLoss,
+	})
+}
+
+// defaultCapQ is the Q assumed for a capacitor with no q=, esr= or df=, by
+// dielectric class. Figures are typical HF values from memory (common
+// practice), chosen on the low side so losses are not understated.
+var defaultCapQ = map[string]float64{
+	"c0g": 1000, "np0": 1000, "mica": 1000, "porcelain": 2000, "film": 500,
+	"glass": 1500, "air": 5000, "vacuum": 5000,
+	"x7r": 40, "x5r": 40, "y5v": 15, "z5u": 15,
+}
+
+// genericCapQ applies when no dielectric is named.
+const genericCapQ = 500
+
+// DefaultCapacitorQ returns the Q assumed for a capacitor of the given
+// dielectric class ("" for unknown) when the netlist gives no loss figure.
+func DefaultCapacitorQ(dielectric string) float64 {
+	if q, ok := defaultCapQ[dielectric]; ok {
+		return q
+	}
+	return genericCapQ
+}
+
+type capacitorModel struct{}
+
+func (capacitorModel) Branches(*Element) int { return 0 }
+
+func (m capacitorModel) Stamp(e *Element, s *System, f float64) {
+	if f == 0 {
+		return // open at DC
+	}
+	s.Admit(e.A, e.B, 1/m.Impedance(e, f))
+}
+
+func (m capacitorModel) State(e *Element, x []complex128, f float64) PartState {
+	v := nodeV(x, e.A) - nodeV(x, e.B)
+	if f == 0 {
+		return PartState{V: v}
+	}
+	return PartState{V: v, I: v / m.Impedance(e, f)}
+}
+
+func (capacitorModel) LossR(e *Element, f float64) float64 {
+	w := 2 * math.Pi * f
+	switch {
+	case e.esr > 0:
+		return e.esr / e.qScale
+	case e.df > 0:
+		return e.df / (w * e.Value) / e.qScale
+	}
+	return 1 / (w * e.Value * e.Q(f))
+}
+
+func (m capacitorModel) Impedance(e *Element, f float64) complex128 {
+	return complex(m.LossR(e, f), -1/(2*math.Pi*f*e.Value))
+}
+
+// capacitorAttrs: loss and rating attributes; ratings are read by the
+// ratings layer, the parser checks their syntax.
+var capacitorAttrs = map[string]AttrSpec{
+	"q":          {Type: TPoints, Help: "Q, or Q@frequency points such as 90@3.5M,180@10M"},
+	"esr":        {Type: TPositive, Units: []string{"ohm"}, Help: "series resistance in Ω"},
+	"df":         {Type: TPositive, Units: []string{"%"}, Help: "dissipation factor tan δ, e.g. 0.001 or 0.1%"},
+	"vpk":        {Type: TPositive, Units: []string{"V"}, Help: "rated peak voltage in V"},
+	"vrms":       {Type: TPositive, Units: []string{"V"}, Help: "rated RMS voltage in V"},
+	"irms":       {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A, optionally at a frequency: 4@10M"},
+	"pmax":       {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W"},
+	"dielectric": {Type: TWord, Help: "a dielectric class: c0g, np0, mica, porcelain, film, glass, air, vacuum, x7r, x5r, y5v, z5u"},
+	"tol":        {Type: TPercent, Help: "value tolerance such as 5%"},
+	"qtol":       {Type: TPercent, Help: "Q tolerance such as 20%"},
+}

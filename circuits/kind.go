@@ -1,0 +1,149 @@
+package circuits
+
+import (
+	"math"
+	"sort"
+)
+
+// Model is how one kind of element enters the network: how it stamps the
+// MNA system and how its state is read back from a solution. Each kind has
+// one implementation in a file of its own (capacitor.go, inductor.go,
+// resistor.go, …), the way go/ast keeps one type per node kind, so a new
+// kind is a new file and a Register call, not a case in every switch.
+//
+// Models are stateless: everything per part lives on the Element, so a
+// tolerance trial can copy Elements and scale them freely.
+type Model interface {
+	// Branches is the number of current unknowns the element adds to the
+	// MNA system (0 for a plain admittance). Build hands out their indices
+	// in Element.Branch, Element.Branch+1, ….
+	Branches(e *Element) int
+	// Stamp adds the element to the system at f; f = 0 is the DC solution.
+	Stamp(e *Element, s *System, f float64)
+	// State reads the element's linear state (voltage, current, flux
+	// linkage; second-port values for two-port kinds) from solution x.
+	// Every field it fills must be linear in x, so superposed solutions
+	// (Split) give superposed states.
+	State(e *Element, x []complex128, f float64) PartState
+	// LossR is the series-equivalent loss resistance at f: the element
+	// dissipates |I|²·LossR with I its State current.
+	LossR(e *Element, f float64) float64
+}
+
+// KindSpec is everything package circuits knows about one kind: its
+// statement syntax and its solver model.
+type KindSpec struct {
+	Kind Kind
+	// Syntax of the statement; Fields name the positional fields, "node"
+	// fields are node names and a "value" field is read in Unit.
+	Syntax Keyword
+	// Layouts, when set, are further positional layouts the statement may
+	// take, told apart by their field count (a line with two or four
+	// nodes). Syntax.Fields is the first.
+	Layouts [][]string
+	Unit    string // unit of the value field: "F", "H", "ohm"
+	Example string // an example value for messages, e.g. "300p"
+	Model   Model
+	// Prepare, when set, reads the kind's solver attributes into the
+	// element when the circuit is built.
+	Prepare func(e *Element)
+}
+
+var kindSpecs = map[Kind]*KindSpec{}
+
+// Register adds a kind of element: its keyword joins the netlist language
+// and its model the solver. Kinds register themselves from init.
+func Register(k *KindSpec) {
+	if _, dup := kindSpecs[k.Kind]; dup {
+		panic("circuits: kind registered twice: " + string(k.Kind))
+	}
+	kindSpecs[k.Kind] = k
+	Keywords[string(k.Kind)] = k.Syntax
+}
+
+// SpecOf returns the registered description of a kind (nil if unknown).
+func SpecOf(k Kind) *KindSpec { return kindSpecs[k] }
+
+// Kinds lists the registered kinds in name order.
+func Kinds() []Kind {
+	out := make([]Kind, 0, len(kindSpecs))
+	for k := range kindSpecs {
+		out = append(out, k)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i] < out[j] })
+	return out
+}
+
+// System is the MNA system being assembled: the matrix and, for the DC
+// solution, the right-hand side. Index −1 is ground and is dropped, so a
+// model stamps without caring which of its nodes is grounded.
+type System struct {
+	N   int
+	M   []complex128 // row-major N×N
+	RHS []complex128 // nil when the caller supplies excitations itself
+}
+
+// Add adds v at row r, column c.
+func (s *System) Add(r, c int, v complex128) {
+	if r >= 0 && c >= 0 {
+		s.M[r*s.N+c] += v
+	}
+}
+
+// Admit stamps an admittance y between nodes a and b.
+func (s *System) Admit(a, b int, y complex128) {
+	s.Add(a, a, y)
+	s.Add(b, b, y)
+	s.Add(a, b, -y)
+	s.Add(b, a, -y)
+}
+
+// Branch stamps a branch unknown k carrying current from a to b whose
+// branch equation is V(a) − V(b) − z·I = rhs (rhs only at DC).
+func (s *System) Branch(a, b, k int, z complex128) {
+	s.Add(a, k, 1)
+	s.Add(b, k, -1)
+	s.Add(k, a, 1)
+	s.Add(k, b, -1)
+	s.Add(k, k, -z)
+}
+
+// Source adds v to the right-hand side at row r (ignored without one).
+func (s *System) Source(r int, v complex128) {
+	if r >= 0 && s.RHS != nil {
+		s.RHS[r] += v
+	}
+}
+
+func (s *System) clear() {
+	clear(s.M)
+	clear(s.RHS)
+}
+
+// Impedancer is implemented by kinds that are a plain two-terminal
+// impedance, so closed-form checks and two-port helpers can ask for it.
+type Impedancer interface {
+	Impedance(e *Element, f float64) complex128
+}
+
+// Impedance of a two-terminal element at f, loss included (NaN for kinds
+// that are not a plain impedance).
+func (e *Element) Impedance(f float64) complex128 {
+	if z, ok := e.Model.(Impedancer); ok {
+		return z.Impedance(e, f)
+	}
+	return complex(math.NaN(), math.NaN())
+}
+
+// fieldsFor returns the positional layout of kind k with n fields, if any.
+func fieldsFor(k *KindSpec, n int) ([]string, bool) {
+	if len(k.Syntax.Fields) == n {
+		return k.Syntax.Fields, true
+	}
+	for _, l := range k.Layouts {
+		if len(l) == n {
+			return l, true
+		}
+	}
+	return k.Syntax.Fields, false
+}
