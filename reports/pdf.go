@@ -91,6 +91,30 @@ func WritePDF(w io.Writer, doc *ReportDoc) error {
 	if doc == nil || doc.Bank == nil {
 		return fmt.Errorf("report: nothing to report")
 	}
+	p := newPDF(doc)
+	f := p.f
+	p.summary()
+	p.marginChart()
+	for i, s := range doc.Bank.Sections {
+		var fp *FilterPlot
+		if i < len(doc.Filters) {
+			fp = &doc.Filters[i]
+		}
+		p.sectionPages(s, fp)
+	}
+	p.method()
+	p.listings()
+
+	var buf bytes.Buffer
+	if err := f.Output(&buf); err != nil {
+		return fmt.Errorf("report: %w", err)
+	}
+	_, err := io.Copy(w, &buf)
+	return err
+}
+
+// newPDF sets up an empty report document: fonts, dates, page furniture.
+func newPDF(doc *ReportDoc) *pdfw {
 	f := gofpdf.New("P", "mm", "A4", "")
 	// fonts before AliasNbPages: gofpdf then keeps the digits in every
 	// font subset, which the page total is written with at the end
@@ -116,25 +140,7 @@ func WritePDF(w io.Writer, doc *ReportDoc) error {
 	p := &pdfw{f: f, doc: doc}
 	f.SetHeaderFuncMode(p.header, false)
 	f.SetFooterFunc(p.footer)
-
-	p.summary()
-	p.marginChart()
-	for i, s := range doc.Bank.Sections {
-		var fp *FilterPlot
-		if i < len(doc.Filters) {
-			fp = &doc.Filters[i]
-		}
-		p.sectionPages(s, fp)
-	}
-	p.method()
-	p.listings()
-
-	var buf bytes.Buffer
-	if err := f.Output(&buf); err != nil {
-		return fmt.Errorf("report: %w", err)
-	}
-	_, err := io.Copy(w, &buf)
-	return err
+	return p
 }
 
 func reportSubject(b *stress.Bank) string {

@@ -378,6 +378,7 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	p.para(8.5, fmt.Sprintf("%d cases audited; highest node voltage %s peak at node %s (%s)",
 		s.NumCases, circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, caseText(s, s.MaxNodeCase)))
 	p.text(colInk)
+	p.schematic(s)
 	if fp != nil && len(fp.Sweep) > 1 {
 		p.sub("Frequency response (matched)", plotTopSp+plotH+30)
 		p.responsePlot(fp)

@@ -55,6 +55,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	jsonPath := fs.String("json", "", "write JSON to `PATH`, or - for stdout")
 	csvPath := fs.String("csv", "", "write the part table as CSV to `PATH`, or - for stdout")
 	reportPath := fs.String("report", "", "write the PDF stress report to `PATH`")
+	schemPath := fs.String("schematic", "", "write each file's schematic, coloured by verdict, as SVG to `PATH`")
 	tol := addTolFlags(fs)
 	if help, err := parseFlags(fs, args); help || err != nil {
 		return exitOK, err
@@ -177,6 +178,14 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 		doc := buildReportDoc(bank, engines, *caution)
 		if err := writeTo(*reportPath, stdout, inputs, func(w io.Writer) error { return writePDF(w, doc) }); err != nil {
+			return exitUsage, err
+		}
+	}
+	if *schemPath != "" {
+		if *schemPath == "-" {
+			return exitUsage, usagef("--schematic needs a file path")
+		}
+		if err := writeTo(*schemPath, stdout, inputs, func(w io.Writer) error { return reports.WriteSchematicSVG(w, bank) }); err != nil {
 			return exitUsage, err
 		}
 	}
