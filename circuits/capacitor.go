@@ -9,7 +9,7 @@ const Capacitor Kind = "capacitor"
 func init() {
 	Register(&KindSpec{
 		Kind: Capacitor, Unit: "F", Example: "300p", Model: capacitorModel{},
-		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: capacitorAttrs},
+		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: withMeasured(capacitorAttrs)},
 		Prepare: prepareLoss,
 	})
 }
@@ -55,6 +55,9 @@ func (m capacitorModel) State(e *Element, x []complex128, f float64) PartState {
 }
 
 func (capacitorModel) LossR(e *Element, f float64) float64 {
+	if z, ok := e.measuredZ(f); ok {
+		return real(z)
+	}
 	w := 2 * math.Pi * f
 	switch {
 	case e.esr > 0:
@@ -66,6 +69,9 @@ func (capacitorModel) LossR(e *Element, f float64) float64 {
 }
 
 func (m capacitorModel) Impedance(e *Element, f float64) complex128 {
+	if z, ok := e.measuredZ(f); ok {
+		return z
+	}
 	return complex(m.LossR(e, f), -1/(2*math.Pi*f*e.Value))
 }
 

@@ -19,6 +19,7 @@ type Element struct {
 	qScale float64
 	esr    float64
 	df     float64
+	meas   *measuredData // measured impedance (parts) or S-parameters (blocks)
 }
 
 type mutual struct {
@@ -35,6 +36,7 @@ type Circuit struct {
 	In, Out  int // node indices of the ports
 	Zin      complex128
 	Zout     complex128
+	outMeas  *measuredData // measured antenna impedance
 	nBranch  int
 }
 
@@ -65,6 +67,11 @@ func Build(nl *Netlist) (*Circuit, error) {
 		if spec.Prepare != nil {
 			spec.Prepare(&e)
 		}
+		m, err := nl.measuredFor(comp.Attrs)
+		if err != nil {
+			return nil, err
+		}
+		e.meas = m
 		if nb := spec.Model.Branches(&e); nb > 0 {
 			e.Branch = next
 			next += nb
@@ -73,6 +80,13 @@ func Build(nl *Netlist) (*Circuit, error) {
 		c.Elements = append(c.Elements, e)
 	}
 	c.nBranch = next - len(nl.Nodes)
+	if nl.Out.Attrs != nil {
+		m, err := nl.measuredFor(nl.Out.Attrs)
+		if err != nil {
+			return nil, err
+		}
+		c.outMeas = m
+	}
 	for _, k := range nl.Couplings {
 		i, ok1 := byName[k.L1]
 		j, ok2 := byName[k.L2]
@@ -238,6 +252,9 @@ func (c *Circuit) Factor(f float64, load *Load) (*Factorization, error) {
 // Refactor reuses the storage for a new frequency.
 func (fz *Factorization) Refactor(f float64) error {
 	fz.F = f
+	if err := fz.C.CheckFrequency(f); err != nil {
+		return err
+	}
 	n := fz.lu.Size()
 	fz.C.stamp(fz.mat, n, f, fz.Load)
 	if err := fz.lu.Factor(fz.mat); err != nil {
@@ -290,8 +307,12 @@ func (c *Circuit) PartStates(x []complex128, f float64, out []PartState) {
 	for i := range c.Elements {
 		e := &c.Elements[i]
 		st := e.Model.State(e, x, f)
-		r := e.Model.LossR(e, f)
-		st.Ploss = r * (real(st.I)*real(st.I) + imag(st.I)*imag(st.I))
+		if d, ok := e.Model.(Dissipator); ok {
+			st.Ploss = d.Dissipation(e, &st, f)
+		} else {
+			r := e.Model.LossR(e, f)
+			st.Ploss = r * (real(st.I)*real(st.I) + imag(st.I)*imag(st.I))
+		}
 		out[i] = st
 	}
 	for _, mu := range c.mutuals {

@@ -14,7 +14,7 @@ const DefaultInductorQ = 100
 func init() {
 	Register(&KindSpec{
 		Kind: Inductor, Unit: "H", Example: "0.91u", Model: inductorModel{},
-		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: inductorAttrs},
+		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: withMeasured(inductorAttrs)},
 		Prepare: prepareLoss,
 	})
 }
@@ -26,16 +26,28 @@ func (inductorModel) Branches(*Element) int { return 1 }
 func (m inductorModel) Stamp(e *Element, s *System, f float64) {
 	// at DC the branch equation V = 0·I makes the coil a short; its
 	// winding resistance is read by the DC layer when it exists
-	s.Branch(e.A, e.B, e.Branch, complex(m.LossR(e, f), 2*math.Pi*f*e.Value))
+	s.Branch(e.A, e.B, e.Branch, m.Impedance(e, f))
 }
 
 func (inductorModel) State(e *Element, x []complex128, f float64) PartState {
 	cur := x[e.Branch]
-	return PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: cur, Lambda: complex(e.Value, 0) * cur}
+	return PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: cur, Lambda: complex(e.Inductance(f), 0) * cur}
 }
 
-func (inductorModel) LossR(e *Element, f float64) float64 {
+func (m inductorModel) LossR(e *Element, f float64) float64 {
+	if z, ok := e.measuredZ(f); ok {
+		return real(z)
+	}
 	return 2 * math.Pi * f * e.Value / e.Q(f)
+}
+
+// Inductance is the coil's inductance at f: its value, or for a measured
+// coil Im Z/ω, so flux follows what was measured.
+func (e *Element) Inductance(f float64) float64 {
+	if z, ok := e.measuredZ(f); ok && f > 0 {
+		return imag(z) / (2 * math.Pi * f)
+	}
+	return e.Value
 }
 
 var inductorAttrs = map[string]AttrSpec{
@@ -49,5 +61,8 @@ var inductorAttrs = map[string]AttrSpec{
 }
 
 func (m inductorModel) Impedance(e *Element, f float64) complex128 {
+	if z, ok := e.measuredZ(f); ok && f > 0 {
+		return z
+	}
 	return complex(m.LossR(e, f), 2*math.Pi*f*e.Value)
 }

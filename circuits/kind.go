@@ -30,6 +30,12 @@ type Model interface {
 	LossR(e *Element, f float64) float64
 }
 
+// Dissipator is implemented by kinds whose loss is not |I|²·LossR (a
+// measured block, a line): the dissipation follows from the whole state.
+type Dissipator interface {
+	Dissipation(e *Element, st *PartState, f float64) float64
+}
+
 // KindSpec is everything package circuits knows about one kind: its
 // statement syntax and its solver model.
 type KindSpec struct {

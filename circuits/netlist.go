@@ -126,10 +126,11 @@ func (c *Component) Terminals() []string {
 
 // Port is the transmitter (in) or antenna (out) connection.
 type Port struct {
-	Side string // "in" or "out"
-	Node string
-	Z    complex128
-	Pos  Pos
+	Side  string // "in" or "out"
+	Node  string
+	Z     complex128
+	Pos   Pos
+	Attrs Attrs
 }
 
 // Core is a magnetic core; its meaning is read by the ratings layer.
@@ -164,6 +165,7 @@ type Directive struct {
 
 // Netlist is a parsed file.
 type Netlist struct {
+	measured   map[*Attr]*Touchstone // loaded by LoadMeasured
 	File       string
 	Source     []byte
 	Title      string
@@ -349,6 +351,9 @@ func (p *parser) line(ln int, raw string) {
 		return
 	}
 	attrs, order, written := p.attrs(ln, kw.Text, spec, rest)
+	if pos, ok := outsideOK(attrs); !ok {
+		p.errorf(pos, "outside=error or outside=hold", "unknown outside= value")
+	}
 	for _, req := range spec.Required {
 		if !written[req] { // a bad value is reported where it is written
 			p.errorf(p.pos(ln, kw.Col), spec.Attrs[req].Help, "%s needs %s=", kw.Text, req)
@@ -416,7 +421,10 @@ func (p *parser) port(ln int, f []Field, attrs Attrs) {
 		return
 	}
 	p.portSeen[side] = true
-	pt := &Port{Side: side, Node: f[1].Text, Pos: p.pos(ln, f[0].Col)}
+	pt := &Port{Side: side, Node: f[1].Text, Pos: p.pos(ln, f[0].Col), Attrs: attrs}
+	if _, ok := attrs["measured"]; ok && side != "out" {
+		p.errorf(attrs["measured"].Pos, "measured= on port out (the antenna)", "measured data on port in")
+	}
 	if f[1].Text == Ground {
 		p.errorf(p.pos(ln, f[1].Col), "a node other than gnd", "port %s on the ground node", side)
 		return

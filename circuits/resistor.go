@@ -6,7 +6,7 @@ const Resistor Kind = "resistor"
 func init() {
 	Register(&KindSpec{
 		Kind: Resistor, Unit: "ohm", Example: "2.2k", Model: resistorModel{},
-		Syntax: Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: resistorAttrs},
+		Syntax: Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: withMeasured(resistorAttrs)},
 	})
 }
 
@@ -14,16 +14,16 @@ type resistorModel struct{}
 
 func (resistorModel) Branches(*Element) int { return 0 }
 
-func (resistorModel) Stamp(e *Element, s *System, f float64) {
-	s.Admit(e.A, e.B, complex(1/e.Value, 0))
+func (m resistorModel) Stamp(e *Element, s *System, f float64) {
+	s.Admit(e.A, e.B, 1/m.Impedance(e, f))
 }
 
-func (resistorModel) State(e *Element, x []complex128, f float64) PartState {
+func (m resistorModel) State(e *Element, x []complex128, f float64) PartState {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
-	return PartState{V: v, I: v / complex(e.Value, 0)}
+	return PartState{V: v, I: v / m.Impedance(e, f)}
 }
 
-func (resistorModel) LossR(e *Element, f float64) float64 { return e.Value }
+func (m resistorModel) LossR(e *Element, f float64) float64 { return real(m.Impedance(e, f)) }
 
 var resistorAttrs = map[string]AttrSpec{
 	"pmax": {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W"},
@@ -31,4 +31,9 @@ var resistorAttrs = map[string]AttrSpec{
 	"tol":  {Type: TPercent, Help: "value tolerance such as 5%"},
 }
 
-func (resistorModel) Impedance(e *Element, f float64) complex128 { return complex(e.Value, 0) }
+func (resistorModel) Impedance(e *Element, f float64) complex128 {
+	if z, ok := e.measuredZ(f); ok && f > 0 {
+		return z
+	}
+	return complex(e.Value, 0)
+}

@@ -53,7 +53,9 @@ var lengthUnit = []string{"m"}
 var Keywords = map[string]Keyword{
 	"title": {},
 	"port": {Fields: []string{"in|out", "node"}, Attrs: map[string]AttrSpec{
-		"z": {Type: TComplex, Help: "port impedance such as 50 or 12.5-j180"},
+		"z":        {Type: TComplex, Help: "port impedance such as 50 or 12.5-j180"},
+		"measured": measuredAttrs["measured"],
+		"outside":  measuredAttrs["outside"],
 	}, Required: []string{"z"}},
 	"core": {Fields: []string{"name"}, Attrs: map[string]AttrSpec{
 		"ae":       {Type: TPositive, Units: []string{"mm2"}, NeedUnit: true, Help: "effective area with a unit, e.g. 15.5mm2"},

@@ -20,6 +20,9 @@ func loadNetlist(path string) (*circuits.Netlist, *circuits.Circuit, error) {
 	if err != nil {
 		return nil, nil, usageError{err}
 	}
+	if err := circuits.LoadMeasured(nl, readMeasured); err != nil {
+		return nil, nil, usageError{err}
+	}
 	c, err := circuits.Build(nl)
 	if err != nil {
 		return nil, nil, usageError{err}
@@ -99,4 +102,22 @@ func writeAtomic(path string, data []byte) error {
 		return fmt.Errorf("cannot write %s: %v", path, err)
 	}
 	return nil
+}
+
+// readMeasured reads a measured-data file named by a netlist, refusing
+// files over circuits.MaxMeasuredBytes rather than reading them whole.
+func readMeasured(path string) ([]byte, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	b, err := io.ReadAll(io.LimitReader(f, circuits.MaxMeasuredBytes+1))
+	if err != nil {
+		return nil, err
+	}
+	if len(b) > circuits.MaxMeasuredBytes {
+		return nil, fmt.Errorf("larger than %d MiB", circuits.MaxMeasuredBytes>>20)
+	}
+	return b, nil
 }
