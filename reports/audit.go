@@ -141,8 +141,15 @@ func ConditionsText(c stress.Conditions) []string {
 	return lines
 }
 
-// WriteAuditText writes the bank as text tables.
+// WriteAuditText writes the bank as text tables at full width.
 func WriteAuditText(w io.Writer, b *stress.Bank, cautionV float64) error {
+	return WriteAuditTextWidth(w, b, cautionV, 0)
+}
+
+// WriteAuditTextWidth writes the bank as text tables fitted to width
+// columns (0: no limit): long lines wrap with a hanging indent and the
+// part table's case column wraps or moves under each row.
+func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width int) error {
 	n := len(b.Sections)
 	plural := "netlist"
 	if n != 1 {
@@ -150,14 +157,32 @@ func WriteAuditText(w io.Writer, b *stress.Bank, cautionV float64) error {
 	}
 	fmt.Fprintf(w, "rfstress audit of %d %s\n", n, plural)
 	for _, s := range b.Sections {
-		writeSectionText(w, s)
+		writeSectionText(w, s, width)
 	}
 	fmt.Fprintln(w)
-	fmt.Fprintf(w, "OVERALL  %s\n", VerdictWords(b.Verdict))
+	wrapLine(w, width, "OVERALL  ", "         ", VerdictWords(b.Verdict))
 	if math.IsInf(b.SafeW, 1) {
-		fmt.Fprintln(w, "  maximum safe power: no rated limit binds (add ratings)")
+		wrapLine(w, width, "  ", "    ", "maximum safe power: no rated limit binds (add ratings)")
 	} else {
-		fmt.Fprintf(w, "  maximum safe power %s, set by %s %s in %s\n", FormatPower(b.SafeW), b.LimitPart, QuantityLabel(b.LimitQ), b.LimitFile)
+		wrapLine(w, width, "  ", "    ", fmt.Sprintf("maximum safe power %s, set by %s %s in %s", FormatPower(b.SafeW), b.LimitPart, QuantityLabel(b.LimitQ), b.LimitFile))
+	}
+	if len(b.Sections) > 1 {
+		// each file's own safe power, so one deliberate fault scenario
+		// does not hide the rest of the bank
+		fmt.Fprintln(w, "  each file:")
+		pw := 0
+		for _, s := range b.Sections {
+			pw = max(pw, runeLen(FormatPower(s.SafeW)))
+		}
+		for _, s := range b.Sections {
+			p := FormatPower(s.SafeW)
+			lead := fmt.Sprintf("    %-8s %s%s  ", s.Verdict, strings.Repeat(" ", pw-runeLen(p)), p)
+			line := s.File
+			if !math.IsInf(s.SafeW, 1) {
+				line += fmt.Sprintf(" (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
+			}
+			wrapLine(w, width, lead, strings.Repeat(" ", runeLen(lead)+2), line)
+		}
 	}
 	var hot []string
 	for _, s := range b.Sections {
@@ -166,8 +191,8 @@ func WriteAuditText(w io.Writer, b *stress.Bank, cautionV float64) error {
 		}
 	}
 	if len(hot) > 0 {
-		fmt.Fprintf(w, "  CAUTION: RF above %s peak at %s — RF burns and arcing; never touch or adjust while transmitting (SAFETY.md)\n",
-			circuits.FormatSI(cautionV, "V"), strings.Join(hot, ", "))
+		wrapLine(w, width, "  ", "    ", fmt.Sprintf("CAUTION: RF above %s peak at %s — RF burns and arcing; never touch or adjust while transmitting (SAFETY.md)",
+			circuits.FormatSI(cautionV, "V"), strings.Join(hot, ", ")))
 	}
 	return nil
 }
@@ -187,14 +212,19 @@ func VerdictWords(v ratings.Verdict) string {
 
 var shown = []ratings.Quantity{ratings.Vpk, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp}
 
-func writeSectionText(w io.Writer, s *stress.Section) {
-	fmt.Fprintf(w, "\n== %s\n", heading(s.File, s.Title))
+func writeSectionText(w io.Writer, s *stress.Section, width int) {
+	fmt.Fprintln(w)
+	wrapLine(w, width, "== ", "   ", heading(s.File, s.Title))
 	for _, l := range ConditionsText(s.Conditions) {
-		fmt.Fprintf(w, "   %s\n", l)
+		wrapLine(w, width, "   ", "     ", l)
 	}
 	fmt.Fprintf(w, "   %d cases\n\n", s.NumCases)
+	// RMS current, dissipation and temperature are taken at average power
 	t := newTable("part", "value", "peak V", "RMS I", "dissip.", "flux", "temp.", "use", "verdict", "binding quantity and case")
+	t.sub = []string{"", "", "", "avg", "avg", "", "avg"}
 	t.leftCols = 2
+	t.leftLast = true
+	t.maxWidth = width
 	for _, p := range s.Parts {
 		cells := []string{p.Name, ValueText(p.Kind, p.Value)}
 		for _, q := range shown {
@@ -211,7 +241,8 @@ func writeSectionText(w io.Writer, s *stress.Section) {
 	if up := s.Upgrades(); len(up) > 0 {
 		fmt.Fprintln(w, "\n   to change:")
 		for _, u := range up {
-			fmt.Fprintf(w, "   %-8s %-8s %s %s — %s\n", u.Part, u.Stress.Verdict, QuantityLabel(u.Stress.Quantity), FormatQ(u.Stress.Quantity, u.Stress.Value), UpgradeText(u))
+			wrapLine(w, width, fmt.Sprintf("   %-8s %-8s ", u.Part, u.Stress.Verdict), "        ",
+				fmt.Sprintf("%s %s — %s", QuantityLabel(u.Stress.Quantity), FormatQ(u.Stress.Quantity, u.Stress.Value), UpgradeText(u)))
 		}
 	}
 	if fs := AllFindings(s); len(fs) > 0 {
@@ -221,15 +252,17 @@ func writeSectionText(w io.Writer, s *stress.Section) {
 			if name == "" {
 				name = "netlist"
 			}
-			fmt.Fprintf(w, "   %-8s %-8s %s\n", name, f.Severity, f.Text)
+			wrapLine(w, width, fmt.Sprintf("   %-8s %-8s ", name, f.Severity), "        ", f.Text)
 		}
 	}
 	writeTolText(w, s)
-	fmt.Fprintf(w, "\n   safe power %s", FormatPower(s.SafeW))
+	safe := "safe power " + FormatPower(s.SafeW)
 	if !math.IsInf(s.SafeW, 1) {
-		fmt.Fprintf(w, " (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
+		safe += fmt.Sprintf(" (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
 	}
-	fmt.Fprintf(w, "; highest node voltage %s peak at %s (%s)\n", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, s.Case(s.MaxNodeCase).Describe())
+	safe += fmt.Sprintf("; highest node voltage %s peak at %s (%s)", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, s.Case(s.MaxNodeCase).Describe())
+	fmt.Fprintln(w)
+	wrapLine(w, width, "   ", "     ", safe)
 }
 
 // AllFindings lists the section's findings and then each part's, in

@@ -104,7 +104,10 @@ type schPart struct {
 // partLabel gives the label lines of a part from its audit result:
 // "C3 470 pF", "2.66 kV pk", "127 %" (of its derated limit).
 func partLabel(pr *stress.PartResult) (string, string, string) {
-	l1 := pr.Name + " " + ValueText(pr.Kind, pr.Value)
+	l1 := pr.Name
+	if pr.Value != 0 {
+		l1 += " " + ValueText(pr.Kind, pr.Value)
+	}
 	st := bindingStress(pr)
 	if st == nil {
 		if v, ok := pr.Stress[ratings.Vpk]; ok {

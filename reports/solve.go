@@ -95,6 +95,11 @@ type table struct {
 	rows [][]string
 	// right-align every column but the first two
 	leftCols int
+	// maxWidth > 0 fits the table to that many columns by wrapping its
+	// last column, or moving it under each row when too little is left
+	maxWidth int
+	sub      []string // a second heading line, e.g. what a column is taken at
+	leftLast bool     // the last column is text: left-aligned
 }
 
 func newTable(head ...string) *table { return &table{head: head, leftCols: 2} }
@@ -102,6 +107,9 @@ func newTable(head ...string) *table { return &table{head: head, leftCols: 2} }
 func (t *table) row(cells ...string) { t.rows = append(t.rows, cells) }
 
 func (t *table) write(w io.Writer) {
+	if t.maxWidth > 0 && len(t.head) > 1 && t.fitted(w) {
+		return
+	}
 	width := make([]int, len(t.head))
 	for i, h := range t.head {
 		width[i] = runeLen(h)
@@ -118,7 +126,7 @@ func (t *table) write(w io.Writer) {
 		b.WriteString("  ")
 		for i, c := range cells {
 			pad := strings.Repeat(" ", width[i]-runeLen(c))
-			if i < t.leftCols {
+			if i < t.leftCols || t.leftLast && i == len(t.head)-1 {
 				b.WriteString(c + pad)
 			} else {
 				b.WriteString(pad + c)
@@ -130,6 +138,11 @@ func (t *table) write(w io.Writer) {
 		fmt.Fprintln(w, strings.TrimRight(b.String(), " "))
 	}
 	line(t.head)
+	if t.sub != nil {
+		sub := make([]string, len(t.head))
+		copy(sub, t.sub)
+		line(sub)
+	}
 	var rule []string
 	for _, n := range width {
 		rule = append(rule, strings.Repeat("─", n))
@@ -141,3 +154,138 @@ func (t *table) write(w io.Writer) {
 }
 
 func runeLen(s string) int { return len([]rune(s)) }
+
+// fitted writes the table with its last column wrapped to fit maxWidth;
+// false when it fits as it is.
+func (t *table) fitted(w io.Writer) bool {
+	n := len(t.head)
+	width := make([]int, n)
+	for i, h := range t.head {
+		width[i] = runeLen(h)
+	}
+	for _, r := range t.rows {
+		for i, c := range r {
+			if i < n && runeLen(c) > width[i] {
+				width[i] = runeLen(c)
+			}
+		}
+	}
+	total := 2 + 2*(n-1)
+	for _, x := range width {
+		total += x
+	}
+	if total <= t.maxWidth {
+		return false
+	}
+	left := total - width[n-1]    // where the last column starts
+	room := t.maxWidth - left - 1 // keep off the last column of the screen
+	under := room < 24
+	head := t.head
+	if under {
+		head = t.head[:n-1] // the last column goes on lines of its own
+		room = t.maxWidth - 7
+		if room < 20 {
+			room = 20
+		}
+	}
+	inner := &table{head: head, leftCols: t.leftCols, leftLast: !under && t.leftLast}
+	if t.sub != nil {
+		inner.sub = t.sub[:min(len(t.sub), len(head))]
+	}
+	lines := make([][]string, len(t.rows))
+	for i, r := range t.rows {
+		last := ""
+		if len(r) == n {
+			last = r[n-1]
+		}
+		lines[i] = wrapWords(last, room)
+		if under {
+			inner.row(r[:min(len(r), n-1)]...)
+		} else {
+			first := ""
+			if len(lines[i]) > 0 {
+				first = lines[i][0]
+			}
+			inner.row(append(append([]string{}, r[:min(len(r), n-1)]...), first)...)
+		}
+	}
+	var buf strings.Builder
+	inner.write(&buf)
+	out := strings.SplitAfter(buf.String(), "\n")
+	// header and rule, then each row with its continuation lines
+	top := 2
+	if t.sub != nil {
+		top = 3
+	}
+	if under {
+		// the moved column's title, on its own heading line
+		fmt.Fprint(w, strings.Join(out[:top-1], ""))
+		fmt.Fprintln(w, "      "+t.head[n-1])
+		fmt.Fprint(w, out[top-1])
+	} else {
+		fmt.Fprint(w, strings.Join(out[:top], ""))
+	}
+	for i := range t.rows {
+		fmt.Fprint(w, out[top+i])
+		rest := lines[i]
+		indent := strings.Repeat(" ", left)
+		if under {
+			indent = strings.Repeat(" ", 6)
+		} else if len(rest) > 0 {
+			rest = rest[1:]
+		}
+		for _, l := range rest {
+			fmt.Fprintln(w, indent+l)
+		}
+	}
+	return true
+}
+
+// wrapWords breaks s into lines of at most n runes at spaces (a longer
+// word gets a line of its own).
+func wrapWords(s string, n int) []string {
+	var lines []string
+	cur := ""
+	for _, word := range strings.Fields(s) {
+		switch {
+		case cur == "":
+			cur = word
+		case runeLen(cur)+1+runeLen(word) <= n:
+			cur += " " + word
+		default:
+			lines = append(lines, cur)
+			cur = word
+		}
+	}
+	if cur != "" {
+		lines = append(lines, cur)
+	}
+	return lines
+}
+
+// wrapLine writes s wrapped to width (0: unlimited) with the given first
+// prefix and a hanging indent for the lines after.
+func wrapLine(w io.Writer, width int, prefix, hang, s string) {
+	if width <= 0 || runeLen(prefix)+runeLen(s) < width {
+		fmt.Fprintln(w, prefix+s)
+		return
+	}
+	room := width - 1 - runeLen(hang)
+	if room < 20 {
+		room = 20
+	}
+	first := width - 1 - runeLen(prefix)
+	if first < 20 {
+		first = 20
+	}
+	lines := wrapWords(s, first)
+	if len(lines) == 0 {
+		fmt.Fprintln(w, prefix)
+		return
+	}
+	fmt.Fprintln(w, prefix+lines[0])
+	rest := strings.Join(lines[1:], " ")
+	for _, l := range wrapWords(rest, room) {
+		fmt.Fprintln(w, hang+l)
+	}
+}

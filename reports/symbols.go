@@ -63,6 +63,7 @@ var symbolDrawers = map[circuits.Kind]symbolDrawer{
 	circuits.Capacitor: drawCapacitor,
 	circuits.Inductor:  drawInductor,
 	circuits.Resistor:  drawResistor,
+	circuits.Block:     drawBlock,
 }
 
 const symW = 0.35 // symbol stroke, mm
@@ -121,6 +122,18 @@ func drawResistor(cv canvas, f frame, _ ssymbol) {
 	const n, h = 7.0, 2.4
 	u0, u1 := f.leads(cv, n)
 	cv.poly([]spt{f.at(u0, -h/2), f.at(u1, -h/2), f.at(u1, h/2), f.at(u0, h/2)}, true, false)
+}
+
+// drawBlock: a measured two-port, a box with both ports' common terminal
+// to ground under it (IEC 60617-2 general two-port with earth).
+func drawBlock(cv canvas, f frame, _ ssymbol) {
+	const n, h = 8.0, 5.0
+	u0, u1 := f.leads(cv, n)
+	cv.poly([]spt{f.at(u0, -h/2), f.at(u1, -h/2), f.at(u1, h/2), f.at(u0, h/2)}, true, false)
+	c := f.at((u0+u1)/2, 0)
+	cv.text(slabel{x: c.x, y: c.y + 1, s: "S", size: 7, bold: true, col: currentStroke(cv), anchor: 'C'})
+	g := f.at((u0+u1)/2, -h/2)
+	drawGround(cv, g)
 }
 
 // drawBox is the general element: a rectangle with a cross-line, for kinds

@@ -158,6 +158,9 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	bank := stress.NewBank(sections)
 
 	wroteStdout := false
+	if *jsonPath == "-" && *csvPath == "-" {
+		return exitUsage, usagef("--json - and --csv - cannot both write to stdout (send one of them to a file)")
+	}
 	if *jsonPath != "" {
 		if err := writeTo(*jsonPath, stdout, inputs, func(w io.Writer) error {
 			return reports.WriteAuditJSON(w, reports.AuditJSON(bank))
@@ -190,7 +193,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 	}
 	if !wroteStdout {
-		if err := reports.WriteAuditText(stdout, bank, *caution); err != nil {
+		if err := reports.WriteAuditTextWidth(stdout, bank, *caution, textWidth(stdout)); err != nil {
 			return exitUsage, err
 		}
 		if *reportPath != "" {
