@@ -156,11 +156,15 @@ func parseRef(s string) float64 {
 // randLadder draws a ladder of 2 to 8 arms and writes its netlist. Part
 // ends are written in random order (a two-terminal part has no polarity).
 func randLadder(r *rand.Rand, outZ string) (string, []refArm) {
+	return randLadderN(r, outZ, 2+r.IntN(7))
+}
+
+// randLadderN draws a ladder of nArms arms.
+func randLadderN(r *rand.Rand, outZ string, nArms int) (string, []refArm) {
 	var b strings.Builder
 	b.WriteString("title random ladder\nport in n0 z=50\n")
 	node, extra, idx := 0, 0, 0
 	var arms []refArm
-	nArms := 2 + r.IntN(7)
 	kinds := []Kind{Inductor, Capacitor, Resistor}
 	part := func(kind Kind, a, bn string) refElem {
 		idx++

@@ -200,10 +200,9 @@ var Short = Load{Z: 0}
 // OpenLoad is the antenna disconnected.
 var OpenLoad = Load{Open: true}
 
-// stamp fills the MNA matrix at f. With a load (not open) one more unknown
+// stamp fills the MNA system at f. With a load (not open) one more unknown
 // carries the load current, so a short (Z = 0) needs no special case.
-func (c *Circuit) stamp(m []complex128, n int, f float64, load *Load) {
-	s := &System{N: n, M: m}
+func (c *Circuit) stamp(s *System, f float64, load *Load) {
 	s.clear()
 	w := 2 * math.Pi * f
 	for i := range c.Elements {
@@ -227,26 +226,68 @@ func (c *Circuit) stamp(m []complex128, n int, f float64, load *Load) {
 
 // Factorization is the network matrix at one frequency, factorised once and
 // reusable for any excitation.
+//
+// The first factorisation records which positions the stamps touch and
+// orders the unknowns by reverse Cuthill–McKee (order.go), which keeps the
+// matrix banded for any topology and puts each branch unknown beside its
+// nodes; when the band is narrow against the size the matrix is stored
+// and factorised as a band (band.go), else densely (lu.go). Either way
+// the pivoting is partial, over every candidate row. A stamp that lands
+// outside the recorded band (a kind whose pattern changes with frequency)
+// widens the pattern and orders again, so nothing is ever dropped.
 type Factorization struct {
 	C    *Circuit
 	F    float64
 	Load *Load
+	n    int
+	pat  *pattern // positions seen so far (nil until the first factorisation)
+	perm []int    // perm[old] = new, band storage only
+	band *BandLU
 	lu   *LU
 	mat  []complex128
+	y    []complex128 // permuted right-hand side
 }
 
 // Factor assembles and factorises the network at f with the given load
 // (nil: the antenna port left out, for superposition).
 func (c *Circuit) Factor(f float64, load *Load) (*Factorization, error) {
-	n := c.Size()
-	if load != nil && !load.Open {
-		n++
-	}
-	fz := &Factorization{C: c, F: f, Load: load, lu: NewLU(n), mat: make([]complex128, n*n)}
+	fz := c.newFactorization(load)
 	if err := fz.Refactor(f); err != nil {
 		return nil, err
 	}
 	return fz, nil
+}
+
+func (c *Circuit) newFactorization(load *Load) *Factorization {
+	n := c.Size()
+	if load != nil && !load.Open {
+		n++
+	}
+	return &Factorization{C: c, Load: load, n: n}
+}
+
+// bandBelow: a band solver is used when its row width 2·kl+ku+1 is below
+// this fraction of the size; wider bands go to the dense LU, whose loops
+// are simpler and whose storage is then no larger. (A variable so the
+// checks can send every network through the band solver.)
+var bandBelow = 0.5
+
+// plan records the stamp pattern at f (merged with what was seen before),
+// orders the unknowns and allocates the storage.
+func (fz *Factorization) plan(f float64) {
+	if fz.pat == nil {
+		fz.pat = &pattern{n: fz.n}
+	}
+	fz.C.stamp(&System{N: fz.n, rec: fz.pat}, f, fz.Load)
+	perm := rcmOrder(fz.pat.adjacency())
+	kl, ku := fz.pat.bands(perm)
+	if float64(2*kl+ku+1) < bandBelow*float64(fz.n) {
+		fz.perm, fz.band, fz.lu, fz.mat = perm, NewBandLU(fz.n, kl, ku), nil, nil
+		fz.y = make([]complex128, fz.n)
+		return
+	}
+	fz.perm, fz.band = nil, nil
+	fz.lu, fz.mat = NewLU(fz.n), make([]complex128, fz.n*fz.n)
 }
 
 // Refactor reuses the storage for a new frequency.
@@ -255,9 +296,23 @@ func (fz *Factorization) Refactor(f float64) error {
 	if err := fz.C.CheckFrequency(f); err != nil {
 		return err
 	}
-	n := fz.lu.Size()
-	fz.C.stamp(fz.mat, n, f, fz.Load)
-	if err := fz.lu.Factor(fz.mat); err != nil {
+	if fz.pat == nil {
+		fz.plan(f)
+	}
+	var err error
+	if fz.band != nil {
+		s := System{N: fz.n, perm: fz.perm, band: fz.band}
+		fz.C.stamp(&s, f, fz.Load)
+		if s.outside {
+			fz.plan(f)
+			return fz.Refactor(f)
+		}
+		err = fz.band.Factor()
+	} else {
+		fz.C.stamp(&System{N: fz.n, M: fz.mat}, f, fz.Load)
+		err = fz.lu.Factor(fz.mat)
+	}
+	if err != nil {
 		return fmt.Errorf("at %s: %w", FormatSI(f, "Hz"), err)
 	}
 	return nil
@@ -265,10 +320,40 @@ func (fz *Factorization) Refactor(f float64) error {
 
 // Solve solves in place for the right-hand side b (length Size, or Size+1
 // with a load). It allocates nothing.
-func (fz *Factorization) Solve(b []complex128) { fz.lu.Solve(b) }
+func (fz *Factorization) Solve(b []complex128) {
+	if fz.band == nil {
+		fz.lu.Solve(b)
+		return
+	}
+	y := fz.y
+	for old, nw := range fz.perm {
+		y[nw] = b[old]
+	}
+	fz.band.Solve(y)
+	for old, nw := range fz.perm {
+		b[old] = y[nw]
+	}
+}
 
 // N is the number of unknowns.
-func (fz *Factorization) N() int { return fz.lu.Size() }
+func (fz *Factorization) N() int { return fz.n }
+
+// Banded reports the band storage in use: its lower and upper bandwidth
+// (ok false when the matrix is factorised densely).
+func (fz *Factorization) Banded() (kl, ku int, ok bool) {
+	if fz.band == nil {
+		return 0, 0, false
+	}
+	return fz.band.kl, fz.band.ku, true
+}
+
+// dense assembles the matrix at fz.F densely, in the original unknown
+// order, for checks against other solvers.
+func (fz *Factorization) dense() []complex128 {
+	m := make([]complex128, fz.n*fz.n)
+	fz.C.stamp(&System{N: fz.n, M: m}, fz.F, fz.Load)
+	return m
+}
 
 // SourceRHS writes the excitation of an EMF e (rms) behind the input port's
 // impedance (Norton form) into b.

@@ -82,16 +82,34 @@ func Kinds() []Kind {
 
 // System is the MNA system being assembled: the matrix and, for the DC
 // solution, the right-hand side. Index −1 is ground and is dropped, so a
-// model stamps without caring which of its nodes is grounded.
+// model stamps without caring which of its nodes is grounded. Models see
+// only Add, Admit, Branch and Source, so the storage underneath can be a
+// dense row-major matrix (M) or, for the solver of a large network, a
+// band with the unknowns renumbered (see Factorization).
 type System struct {
 	N   int
-	M   []complex128 // row-major N×N
+	M   []complex128 // row-major N×N (dense storage)
 	RHS []complex128 // nil when the caller supplies excitations itself
+
+	perm    []int    // unknown renumbering for band storage: perm[old] = new
+	band    *BandLU  // band storage, when set, instead of M
+	rec     *pattern // when set, Add records positions and stores nothing
+	outside bool     // an Add fell outside the band
 }
 
 // Add adds v at row r, column c.
 func (s *System) Add(r, c int, v complex128) {
-	if r >= 0 && c >= 0 {
+	if r < 0 || c < 0 {
+		return
+	}
+	switch {
+	case s.band != nil:
+		if !s.band.Add(s.perm[r], s.perm[c], v) {
+			s.outside = true
+		}
+	case s.rec != nil:
+		s.rec.add(r, c)
+	default:
 		s.M[r*s.N+c] += v
 	}
 }
@@ -124,6 +142,9 @@ func (s *System) Source(r int, v complex128) {
 func (s *System) clear() {
 	clear(s.M)
 	clear(s.RHS)
+	if s.band != nil {
+		s.band.Clear()
+	}
 }
 
 // Impedancer is implemented by kinds that are a plain two-terminal

@@ -71,7 +71,7 @@ func TestLUAgreesWithGonum(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			check(file, fz.N(), append([]complex128(nil), fz.mat...))
+			check(file, fz.N(), fz.dense())
 		}
 	}
 	for trial := 0; trial < 20; trial++ {

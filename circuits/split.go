@@ -48,10 +48,9 @@ type SplitWork struct {
 
 // NewSplitWork prepares storage for c.
 func NewSplitWork(c *Circuit) *SplitWork {
-	n := c.Size()
 	return &SplitWork{
-		fz:    &Factorization{C: c, lu: NewLU(n), mat: make([]complex128, n*n)},
-		x:     make([]complex128, n),
+		fz:    c.newFactorization(nil),
+		x:     make([]complex128, c.Size()),
 		parts: make([]PartState, len(c.Elements)),
 	}
 }
