@@ -354,12 +354,17 @@ func (e *Engine) evalCase(w *workspace, ci int, kind CaseKind, l circuits.Load, 
 }
 
 func (e *Engine) evalNodes(w *workspace, ci, cls int, alpha complex128, scale, k float64, nw *nodeWorst) {
+	for ni := range w.carr.Node[0] {
+		e.evalNode(w, ni, ci, cls, alpha, scale, k, nw)
+	}
+}
+
+// evalNode keeps node ni's peak voltage at one case if it is the worst.
+func (e *Engine) evalNode(w *workspace, ni, ci, cls int, alpha complex128, scale, k float64, nw *nodeWorst) {
 	s := w.carr
-	for ni := range s.Node[0] {
-		v := math.Sqrt2 * (cmplx.Abs(s.Node[0][ni]+alpha*s.Node[1][ni])*scale + k*w.nodeH[cls][ni])
-		if v > nw.vpk {
-			nw.vpk, nw.node, nw.at = v, ni, ci
-		}
+	v := math.Sqrt2 * (cmplx.Abs(s.Node[0][ni]+alpha*s.Node[1][ni])*scale + k*w.nodeH[cls][ni])
+	if v > nw.vpk {
+		nw.vpk, nw.node, nw.at = v, ni, ci
 	}
 }
 
@@ -469,7 +474,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		for _, jj := range []int{j, j + 1} {
 			jj = ((jj % n) + n) % n
 			a := s.Alpha(e.circle[jj])
-			e.evalNodes(w, first+jj, hNormal, a, scale, k, nw)
+			e.evalNode(w, ni, first+jj, hNormal, a, scale, k, nw)
 		}
 	}
 }
@@ -482,7 +487,18 @@ func (e *Engine) alphaCircle(s *circuits.Split) (complex128, float64, bool) {
 	for k := 0; k < 3; k++ {
 		a[k] = s.Alpha(circuits.LoadOnCircle(z0, e.Cond.SWR, 2*math.Pi*float64(k)/3))
 	}
-	return circleThrough(a[0], a[1], a[2])
+	if c, r, ok := circleThrough(a[0], a[1], a[2]); ok {
+		return c, r, true
+	}
+	// deep in a long filter's stopband Voc underflows and α is lost in
+	// rounding (subnormal or zero); its part in any state is below 1e-250
+	// of the drive, so a disc round zero of twice its size bounds it
+	// rather than a scan of every phase for every part
+	m := math.Max(cmplx.Abs(a[0]), math.Max(cmplx.Abs(a[1]), cmplx.Abs(a[2])))
+	if m < 1e-250 {
+		return 0, 2 * m, true
+	}
+	return 0, 0, false
 }
 
 // circleThrough returns the circle through three points (circumcircle in

@@ -1,9 +1,11 @@
 package stress
 
 import (
+	"fmt"
 	"math"
 	"math/cmplx"
 	"os"
+	"strings"
 	"testing"
 
 	"rfstress/circuits"
@@ -139,3 +141,43 @@ func benchTolerance(b *testing.B, trials, workers int) {
 
 func BenchmarkTolerance1000Workers1(b *testing.B) { benchTolerance(b, 1000, 1) }
 func BenchmarkTolerance1000Workers2(b *testing.B) { benchTolerance(b, 1000, 2) }
+
+// ladderSource is a long lowpass ladder of the given number of parts:
+// alternately a shunt capacitor and a series coil, near the constant-k
+// values for 50 Ω and a 12 MHz cutoff, each rated, so the audit does all
+// its work on every part.
+func ladderSource(parts int) string {
+	const r0, fc = 50.0, 12e6
+	l, c := r0/(math.Pi*fc), 1/(math.Pi*fc*r0)
+	var b strings.Builder
+	b.WriteString("title long ladder\nport in n0 z=50\n")
+	node := 0
+	for k := 0; k < parts; k++ {
+		if k%2 == 0 {
+			fmt.Fprintf(&b, "capacitor C%d n%d gnd %.6g dielectric=mica q=1500 vpk=1k irms=5\n", k, node, c*(1+0.01*float64(k%7)))
+		} else {
+			fmt.Fprintf(&b, "inductor L%d n%d n%d %.6g q=150 irms=5\n", k, node, node+1, l*(1+0.01*float64(k%5)))
+			node++
+		}
+	}
+	fmt.Fprintf(&b, "port out n%d z=50\n", node)
+	return b.String()
+}
+
+// benchLadderAudit times the whole default audit of a ladder (Engine
+// built, every case run, judged, the section assembled) as a library
+// caller gets it.
+func benchLadderAudit(b *testing.B, parts int) {
+	fx := build(b, ladderSource(parts), benchDefault...)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := fx.eng.Audit(); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(parts), "parts")
+}
+
+func BenchmarkLadderAudit100(b *testing.B)  { benchLadderAudit(b, 100) }
+func BenchmarkLadderAudit1000(b *testing.B) { benchLadderAudit(b, 1000) }
+func BenchmarkLadderAudit5000(b *testing.B) { benchLadderAudit(b, 5000) }
