@@ -88,4 +88,6 @@ var capacitorAttrs = map[string]AttrSpec{
 	"dielectric": {Type: TWord, Help: "a dielectric class: c0g, np0, mica, porcelain, film, glass, air, vacuum, x7r, x5r, y5v, z5u"},
 	"tol":        {Type: TPercent, Help: "value tolerance such as 5%"},
 	"qtol":       {Type: TPercent, Help: "Q tolerance such as 20%"},
+	"range":      {Type: TText, Help: "settings of a variable capacitor lo:hi, such as 20p:400p"},
+	"steps":      {Type: TText, Help: "a number of evenly spaced settings, or the settings: 8 or 10p,22p,47p"},
 }

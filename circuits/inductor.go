@@ -58,6 +58,8 @@ var inductorAttrs = map[string]AttrSpec{
 	"irms":  {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A"},
 	"tol":   {Type: TPercent, Help: "value tolerance such as 5%"},
 	"qtol":  {Type: TPercent, Help: "Q tolerance such as 20%"},
+	"range": {Type: TText, Help: "settings of a variable inductor lo:hi, such as 1u:25u"},
+	"steps": {Type: TText, Help: "a number of evenly spaced settings (taps), or the settings: 12 or 2u,4u,8u"},
 }
 
 func (m inductorModel) Impedance(e *Element, f float64) complex128 {

@@ -114,6 +114,8 @@ type Component struct {
 	Value float64  // 0 for kinds without a value field
 	Pos   Pos
 	Attrs Attrs
+	// Adjust is set for a variable part (range=, steps=); see variable.go.
+	Adjust *Adjust
 }
 
 // Terminals returns the component's nodes in statement order.
@@ -530,9 +532,10 @@ func (p *parser) component(ln int, kind Kind, f []Field, attrs Attrs) {
 	if n > 1 {
 		p.errorf(p.pos(ln, f[0].Col), "one of q=, esr=, df=", "%s %s gives more than one loss figure", kind, f[0].Text)
 	}
+	adj := p.adjust(kind, f[0].Text, v, valueOK, attrs)
 	if okName && valueOK && nodesOK && len(nodes) >= 2 {
 		p.nl.Components = append(p.nl.Components, &Component{
-			Name: f[0].Text, Kind: kind, A: nodes[0], B: nodes[1], Nodes: nodes, Value: v, Pos: p.pos(ln, f[0].Col), Attrs: attrs,
+			Name: f[0].Text, Kind: kind, A: nodes[0], B: nodes[1], Nodes: nodes, Value: v, Pos: p.pos(ln, f[0].Col), Attrs: attrs, Adjust: adj,
 		})
 	}
 }
