@@ -220,10 +220,14 @@ func (m *Matcher) family(best float64) float64 {
 // Tune finds the settings that match load z at f.
 func (m *Matcher) Tune(f float64, z complex128) (Result, error) {
 	res := Result{F: f, Load: z, Policy: m.Policy}
+	t, err := m.newTuner(f, z)
+	if err != nil {
+		return res, err
+	}
 	var cands []Eval
 	combos := m.combosList()
 	for _, dv := range combos {
-		cs, err := m.stage1(f, z, dv, len(combos) > 1)
+		cs, err := t.stage1(dv, len(combos) > 1)
 		if err != nil {
 			return res, err
 		}
@@ -260,11 +264,11 @@ func (m *Matcher) Tune(f float64, z complex128) (Result, error) {
 	if len(m.cont) > 0 && best.Gamma < 1e-6 {
 		// refine from the few best matches by the policy's measure
 		sort.SliceStable(fam, func(i, j int) bool { return m.better(fam[i], fam[j]) })
-		if len(fam) > 3 {
-			fam = fam[:3]
+		if len(fam) > 2 {
+			fam = fam[:2]
 		}
 		for _, c := range fam {
-			if e, ok := m.stage2(f, z, c, gc); ok && m.better(e, chosen) {
+			if e, ok := t.stage2(c, gc); ok && m.better(e, chosen) {
 				chosen = e
 			}
 		}
@@ -385,7 +389,8 @@ func halton(i, b int) float64 {
 
 // stage1 minimises |Γ|² from several starts; with only discrete parts it
 // evaluates the one setting.
-func (m *Matcher) stage1(f float64, z complex128, dv []float64, few bool) ([]Eval, error) {
+func (t *tuner) stage1(dv []float64, few bool) ([]Eval, error) {
+	m, f, z := t.m, t.f, t.z
 	if len(m.cont) == 0 {
 		e, err := m.Evaluate(f, z, m.values(nil, dv))
 		if err != nil {
@@ -395,11 +400,8 @@ func (m *Matcher) stage1(f float64, z complex128, dv []float64, few bool) ([]Eva
 	}
 	var out []Eval
 	fn := func(u []float64) float64 {
-		e, err := m.Evaluate(f, z, m.values(u, dv))
-		if err != nil {
-			return 1e9
-		}
-		return e.Gamma * e.Gamma
+		g := t.gamma(m.values(u, dv))
+		return real(g)*real(g) + imag(g)*imag(g)
 	}
 	for _, u0 := range m.starts(few) {
 		u, _ := minimize(fn, u0, 1e-20)
@@ -422,14 +424,25 @@ func (m *Matcher) stage1(f float64, z complex128, dv []float64, few bool) ([]Eva
 // (the free parts), so every setting visited is a match and the policy
 // only ever chooses between matches; the free parts are scanned and then
 // refined by Nelder–Mead. It returns the best setting visited.
-func (m *Matcher) stage2(f float64, z complex128, from Eval, gc float64) (Eval, bool) {
+func (t *tuner) stage2(from Eval, gc float64) (Eval, bool) {
+	m := t.m
 	if len(m.cont) < 3 {
 		return from, false // one or two continuous parts: the matches are points
 	}
-	pi, pj := m.pair(f, z, from.Values)
-	if pi < 0 {
-		return from, false
+	best, found := from, false
+	// a part on its range limit can only be free, never one of the pair,
+	// so every pair that controls the match is tried
+	for _, pr := range t.pairs(from.Values) {
+		if e, ok := t.walk(from, gc, pr[0], pr[1]); ok && m.better(e, best) {
+			best, found = e, true
+		}
 	}
+	return best, found
+}
+
+// walk follows the family with parts pi and pj solved for the match.
+func (t *tuner) walk(from Eval, gc float64, pi, pj int) (Eval, bool) {
+	m := t.m
 	var free []int
 	for _, k := range m.cont {
 		if k != pi && k != pj {
@@ -444,7 +457,7 @@ func (m *Matcher) stage2(f float64, z complex128, from Eval, gc float64) (Eval, 
 			a := m.Vars[k].Adj
 			v[k] = a.Lo * math.Pow(a.Hi/a.Lo, (1+math.Sin(u[j]))/2)
 		}
-		e, ok := m.solvePair(f, z, v, pi, pj, gc)
+		e, ok := t.solvePair(v, pi, pj, gc)
 		if ok && m.better(e, best) {
 			best, found = e, true
 		}
@@ -473,11 +486,11 @@ func (m *Matcher) stage2(f float64, z complex128, from Eval, gc float64) (Eval, 
 		for dir := -1; dir <= 1; dir += 2 {
 			seed = append(seed[:0], from.Values...)
 			for i := 1; i <= n; i++ {
-				t := (1+math.Sin(u0[0]))/2 + float64(dir*i)/n
-				if t < 0 || t > 1 {
+				tt := (1+math.Sin(u0[0]))/2 + float64(dir*i)/n
+				if tt < 0 || tt > 1 {
 					break
 				}
-				u := []float64{math.Asin(2*t - 1)}
+				u := []float64{math.Asin(2*tt - 1)}
 				e, ok := try(u)
 				if !ok {
 					break
@@ -495,65 +508,103 @@ func (m *Matcher) stage2(f float64, z complex128, from Eval, gc float64) (Eval, 
 	return best, found
 }
 
-// pair picks the two continuous parts that best control the match at v:
-// the pair whose Jacobian of Γ against their log values is best
-// conditioned.
-func (m *Matcher) pair(f float64, z complex128, v []float64) (int, int) {
-	g0 := m.gamma(f, z, v)
+// pairs lists the pairs of continuous parts that control the match at v,
+// best conditioned first: the Jacobian of Γ against their log values is
+// far from singular.
+func (t *tuner) pairs(v []float64) [][2]int {
+	m := t.m
+	g0 := t.gamma(v)
 	d := make([]complex128, len(m.Vars))
 	for _, k := range m.cont {
 		w := append([]float64(nil), v...)
 		w[k] *= math.Exp(1e-6)
-		d[k] = (m.gamma(f, z, w) - g0) / 1e-6
+		d[k] = (t.gamma(w) - g0) / 1e-6
 	}
-	bi, bj, bq := -1, -1, 0.0
+	type pq struct {
+		p [2]int
+		q float64
+	}
+	var out []pq
 	for a := 0; a < len(m.cont); a++ {
 		for b := a + 1; b < len(m.cont); b++ {
 			x, y := d[m.cont[a]], d[m.cont[b]]
 			det := math.Abs(real(x)*imag(y) - imag(x)*real(y))
 			q := det / (cmplx.Abs(x)*cmplx.Abs(y) + 1e-300)
-			if q > bq+1e-9 {
-				bi, bj, bq = m.cont[a], m.cont[b], q
+			if q > 1e-3 {
+				out = append(out, pq{[2]int{m.cont[a], m.cont[b]}, q})
 			}
 		}
 	}
-	if bq < 1e-6 {
-		return -1, -1
+	sort.SliceStable(out, func(i, j int) bool { return out[i].q > out[j].q })
+	var ps [][2]int
+	for _, x := range out {
+		ps = append(ps, x.p)
 	}
-	return bi, bj
+	return ps
 }
 
-// gamma is the power-wave reflection at the transmitter (complex).
-func (m *Matcher) gamma(f float64, z complex128, v []float64) complex128 {
-	e, err := m.Evaluate(f, z, v)
+// tuner is the work of one Tune call: a private retuned copy of the
+// circuit whose variable parts are set in place, and its factorisation,
+// reused for every trial setting so the search allocates little.
+type tuner struct {
+	m    *Matcher
+	f    float64
+	z    complex128
+	c    *circuits.Circuit
+	load circuits.Load
+	fz   *circuits.Factorization
+	x    []complex128
+}
+
+func (m *Matcher) newTuner(f float64, z complex128) (*tuner, error) {
+	t := &tuner{m: m, f: f, z: z, c: m.C.Scaled(nil, nil), load: circuits.Load{Z: z}}
+	fz, err := t.c.Factor(f, &t.load)
 	if err != nil {
+		return nil, err
+	}
+	t.fz, t.x = fz, make([]complex128, fz.N())
+	return t, nil
+}
+
+// gamma is the power-wave reflection at the transmitter (complex) at
+// setting v; 1 when the network cannot be solved there.
+func (t *tuner) gamma(v []float64) complex128 {
+	for k, p := range t.m.Vars {
+		t.c.Elements[p.Index].Value = v[k]
+	}
+	if err := t.fz.Refactor(t.f); err != nil {
 		return 1
 	}
-	return e.GammaC
+	t.c.SourceRHS(t.x, 1)
+	t.fz.Solve(t.x)
+	vin := t.x[t.c.In]
+	iin := (1 - vin) / t.c.Zin
+	if iin == 0 {
+		return 1
+	}
+	zin := vin / iin
+	g := (zin - t.c.Zin) / (zin + cmplx.Conj(t.c.Zin))
+	if cmplx.IsNaN(g) || cmplx.IsInf(g) {
+		return 1
+	}
+	return g
 }
 
 // solvePair sets parts pi and pj so that Γ = 0 (Newton's method on their
 // log values, staying within their ranges); it reports whether the result
 // matches within gc.
-func (m *Matcher) solvePair(f float64, z complex128, v []float64, pi, pj int, gc float64) (Eval, bool) {
+func (t *tuner) solvePair(v []float64, pi, pj int, gc float64) (Eval, bool) {
+	m, f, z := t.m, t.f, t.z
 	ai, aj := m.Vars[pi].Adj, m.Vars[pj].Adj
-	prev := math.Inf(1)
-	for it := 0; it < 25; it++ {
-		g := m.gamma(f, z, v)
-		ag := cmplx.Abs(g)
-		// stop at numerical zero, or when a step no longer halves |Γ|
-		// (a range limit holds one of the pair)
-		if ag < 1e-11 || (ag > 0.5*prev && ag > gc) || (ag > 0.9*prev) {
-			break
-		}
-		prev = ag
+	g := t.gamma(v)
+	for it := 0; it < 30 && cmplx.Abs(g) > 1e-11; it++ {
 		const h = 1e-7
 		w := append([]float64(nil), v...)
 		w[pi] *= math.Exp(h)
-		gi := (m.gamma(f, z, w) - g) / h
+		gi := (t.gamma(w) - g) / h
 		w[pi] = v[pi]
 		w[pj] *= math.Exp(h)
-		gj := (m.gamma(f, z, w) - g) / h
+		gj := (t.gamma(w) - g) / h
 		det := real(gi)*imag(gj) - imag(gi)*real(gj)
 		if det == 0 || math.IsNaN(det) {
 			break
@@ -561,12 +612,25 @@ func (m *Matcher) solvePair(f float64, z complex128, v []float64, pi, pj int, gc
 		// solve [gi gj]·[dx dy] = −g in real and imaginary parts
 		dx := -(real(g)*imag(gj) - imag(g)*real(gj)) / det
 		dy := -(real(gi)*imag(g) - imag(gi)*real(g)) / det
-		lim := 0.5
-		if s := math.Max(math.Abs(dx), math.Abs(dy)); s > lim {
-			dx, dy = dx*lim/s, dy*lim/s
+		if s := math.Max(math.Abs(dx), math.Abs(dy)); s > 0.5 {
+			dx, dy = dx*0.5/s, dy*0.5/s
 		}
-		v[pi] = ai.Clamp(v[pi] * math.Exp(dx))
-		v[pj] = aj.Clamp(v[pj] * math.Exp(dy))
+		// backtrack until |Γ| falls; none falling means a range limit
+		// holds one of the pair (or the family ends here)
+		improved := false
+		for k := 0; k < 12; k++ {
+			w[pi] = ai.Clamp(v[pi] * math.Exp(dx))
+			w[pj] = aj.Clamp(v[pj] * math.Exp(dy))
+			if gw := t.gamma(w); cmplx.Abs(gw) < cmplx.Abs(g) {
+				copy(v, w)
+				g, improved = gw, true
+				break
+			}
+			dx, dy = dx/2, dy/2
+		}
+		if !improved {
+			break
+		}
 	}
 	e, err := m.Evaluate(f, z, v)
 	if err != nil {

@@ -82,3 +82,40 @@ func TestPiNetworkQDesign(t *testing.T) {
 }
 
 func fmtG(v float64) string { return strconvG(v) }
+
+// Same inputs, same settings to the last bit, with 1, 2 or 5 workers.
+func TestTuneAllDeterministic(t *testing.T) {
+	c := build(t, `port in n1 z=50
+port out n3 z=13-j490
+capacitor C1 n1 n2 40p dielectric=air range=10p:60p
+inductor  L1 n2 gnd 18u q=200 range=1u:25u
+capacitor C2 n2 n3 250p dielectric=air range=25p:400p
+`)
+	m, err := NewMatcher(c, DefaultSWR, LeastLoss)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cases, _ := Region(c.Zout, 3).Cases([]float64{3.65e6}, 3.65e6, 3.65e6)
+	cases = cases[:9]
+	var ref []Result
+	for _, w := range []int{1, 2, 5} {
+		got, err := m.TuneAll(cases, w)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if ref == nil {
+			ref = got
+			continue
+		}
+		for i := range got {
+			for k := range got[i].Best.Values {
+				if math.Float64bits(got[i].Best.Values[k]) != math.Float64bits(ref[i].Best.Values[k]) {
+					t.Errorf("workers %d case %d part %d: %v vs %v", w, i, k, got[i].Best.Values[k], ref[i].Best.Values[k])
+				}
+			}
+			if got[i].Matched != ref[i].Matched || got[i].Limit != ref[i].Limit {
+				t.Errorf("workers %d case %d differs", w, i)
+			}
+		}
+	}
+}

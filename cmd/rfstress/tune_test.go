@@ -1,0 +1,80 @@
+package main
+
+import (
+	"encoding/json"
+	"math"
+	"strings"
+	"testing"
+)
+
+// An L network (series coil, shunt capacitor across the load) tuned for
+// 200 Ω at 7 MHz: Bowick's closed form gives Q = √(200/50 − 1) = 1.732,
+// XL = 86.6 Ω (1.969 µH), XC = 115.5 Ω (196.9 pF).
+const lTuneNet = `title L network
+port in n1 z=50
+port out n2 z=200
+inductor  L1 n1 n2 2u q=1e7 range=0.2u:20u
+capacitor C1 n2 gnd 200p q=1e7 range=10p:2000p
+`
+
+func TestTuneCommand(t *testing.T) {
+	f := writeFile(t, "l.net", lTuneNet)
+	code, out, errs := runCLI(t, "tune", f, "--freq", "7M", "--load", "200", "--load", "10", "--json", "-")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var doc struct {
+		Tuning []struct {
+			Policy string `json:"policy"`
+			Rows   []struct {
+				Matched  bool               `json:"matched"`
+				Settings map[string]float64 `json:"settings"`
+				SWR      *float64           `json:"swr"`
+				Limit    string             `json:"limit"`
+			} `json:"rows"`
+		} `json:"tuning"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	rows := doc.Tuning[0].Rows
+	if doc.Tuning[0].Policy != "least-loss" || len(rows) != 2 {
+		t.Fatalf("doc %+v", doc)
+	}
+	w := 2 * math.Pi * 7e6
+	q := math.Sqrt(3)
+	if l := rows[0].Settings["L1"]; math.Abs(l/(q*50/w)-1) > 1e-4 {
+		t.Errorf("L1 %.6g, closed form %.6g", l, q*50/w)
+	}
+	if c := rows[0].Settings["C1"]; math.Abs(c/(q/(w*200))-1) > 1e-4 {
+		t.Errorf("C1 %.6g, closed form %.6g", c, q/(w*200))
+	}
+	// 10 Ω is on the side this L network cannot match
+	if rows[1].Matched || rows[1].Limit == "" || rows[1].SWR == nil || *rows[1].SWR < 5 {
+		t.Errorf("10 Ω row %+v: want unmatchable with SWR ≥ 5 and a limit", rows[1])
+	}
+	code, out, _ = runCLI(t, "tune", f, "--freq", "7M", "--loads", "swr=10", "--tune-policy", "largest-c")
+	if code != 0 || !strings.Contains(out, "largest-c") || !strings.Contains(out, "unmatchable") {
+		t.Errorf("exit %d, text:\n%s", code, out)
+	}
+	for _, bad := range [][]string{
+		{"tune", f, "--load", "200"},
+		{"tune", f, "--freq", "7M"},
+		{"tune", f, "--freq", "7M", "--load", "200", "--tune-policy", "cheapest"},
+		{"tune", f, "--freq", "7M", "--load", "200", "--match-swr", "0.5"},
+		{"tune", f, "--freq", "7M", "--loads", "swr=x"},
+	} {
+		if code, _, _ := runCLI(t, bad...); code != 2 {
+			t.Errorf("%v: exit %d, want 2", bad, code)
+		}
+	}
+	csv := writeFile(t, "loads.csv", "frequency,R,X\n7M,200,0\n7.2M,-5,0\n")
+	code, _, errs = runCLI(t, "tune", f, "--loads", csv)
+	if code != 2 || !strings.Contains(errs, "loads.csv:3:6: bad resistance") {
+		t.Errorf("exit %d, stderr %s", code, errs)
+	}
+	fixed := writeFile(t, "fixed.net", "port in n1 z=50\nport out n2 z=50\ninductor L1 n1 n2 1u\ncapacitor C1 n2 gnd 100p\n")
+	if code, _, errs := runCLI(t, "tune", fixed, "--freq", "7M", "--load", "50"); code != 2 || !strings.Contains(errs, "no variable part") {
+		t.Errorf("fixed network: exit %d, %s", code, errs)
+	}
+}
