@@ -70,7 +70,16 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		inputs = append(inputs, *d)
 	}
 	if len(files) == 0 {
-		return exitUsage, usagef("audit needs at least one netlist file (see rfstress audit --help)")
+		return exitUsage, usagef("audit needs at least one netlist file, or - for stdin (see rfstress audit --help)")
+	}
+	dash := 0
+	for _, f := range files {
+		if f == "-" {
+			dash++
+		}
+	}
+	if dash > 1 {
+		return exitUsage, usagef("- (stdin) can be read only once")
 	}
 	threshold, err := failLevel(*failOn)
 	if err != nil {

@@ -10,13 +10,31 @@ import (
 	"rfstress/circuits"
 )
 
-// loadNetlist reads and parses one netlist file; input errors exit 2.
+// stdin is where a netlist named "-" is read from.
+var stdin io.Reader = os.Stdin
+
+// stdinName is how a netlist read from stdin is named in messages.
+const stdinName = "stdin"
+
+// loadNetlist reads and parses one netlist file ("-": stdin); input
+// errors exit 2.
 func loadNetlist(path string) (*circuits.Netlist, *circuits.Circuit, error) {
-	src, err := os.ReadFile(path)
-	if err != nil {
-		return nil, nil, usagef("cannot read netlist: %v", err)
+	var src []byte
+	var err error
+	name := path
+	if path == "-" {
+		name = stdinName
+		src, err = io.ReadAll(io.LimitReader(stdin, maxNetlistBytes+1))
+		if err == nil && len(src) > maxNetlistBytes {
+			err = fmt.Errorf("larger than %d MiB", maxNetlistBytes>>20)
+		}
+	} else {
+		src, err = os.ReadFile(path)
 	}
-	nl, err := circuits.Parse(path, src)
+	if err != nil {
+		return nil, nil, usagef("cannot read netlist %s: %v", name, err)
+	}
+	nl, err := circuits.Parse(name, src)
 	if err != nil {
 		return nil, nil, usageError{err}
 	}
@@ -29,6 +47,9 @@ func loadNetlist(path string) (*circuits.Netlist, *circuits.Circuit, error) {
 	}
 	return nl, c, nil
 }
+
+// maxNetlistBytes bounds a netlist read from a pipe.
+const maxNetlistBytes = 16 << 20
 
 func parseFreq(flag, s string) (float64, error) {
 	v, err := circuits.ParseValue(s, "Hz")
