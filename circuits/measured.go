@@ -3,6 +3,7 @@ package circuits
 import (
 	"fmt"
 	"path/filepath"
+	"strconv"
 	"strings"
 )
 
@@ -190,3 +191,56 @@ func outsideOK(attrs Attrs) (Pos, bool) {
 	w := strings.ToLower(a.Words[0])
 	return a.ValPos, w == "hold" || w == "error"
 }
+
+// WithQScales returns the netlist's text with the q= of each named
+// inductor multiplied by its factor (a q= is added, from the default Q,
+// where none was written), and header lines put first as comments. The
+// rest of the text is kept byte for byte.
+func (n *Netlist) WithQScales(scales map[string]float64, header []string) []byte {
+	lines := strings.Split(string(n.Source), "\n")
+	for _, c := range n.Components {
+		s, ok := scales[c.Name]
+		if !ok || c.Pos.Line < 1 || c.Pos.Line > len(lines) {
+			continue
+		}
+		ln := lines[c.Pos.Line-1]
+		if a, ok := c.Attrs["q"]; ok {
+			var parts []string
+			for _, p := range strings.Split(a.Raw, ",") {
+				v, f, hasF := strings.Cut(p, "@")
+				x, err := ParseValue(v)
+				if err != nil {
+					parts = append(parts, p)
+					continue
+				}
+				q := strconvG(x * s)
+				if hasF {
+					q += "@" + f
+				}
+				parts = append(parts, q)
+			}
+			// the attribute's text starts at its key's column (runes)
+			r := []rune(ln)
+			start := a.Pos.Col - 1
+			end := start + len([]rune("q="+a.Raw))
+			if start >= 0 && end <= len(r) && string(r[start:end]) == "q="+a.Raw {
+				ln = string(r[:start]) + "q=" + strings.Join(parts, ",") + string(r[end:])
+			}
+		} else {
+			body, comment, hasC := strings.Cut(ln, "#")
+			ln = strings.TrimRight(body, " \t") + " q=" + strconvG(DefaultInductorQ*s)
+			if hasC {
+				ln += " #" + comment
+			}
+		}
+		lines[c.Pos.Line-1] = ln
+	}
+	var b strings.Builder
+	for _, h := range header {
+		b.WriteString("# " + h + "\n")
+	}
+	b.WriteString(strings.Join(lines, "\n"))
+	return []byte(b.String())
+}
+
+func strconvG(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }

@@ -248,3 +248,46 @@ func TestMeasuredSeriesRLC(t *testing.T) {
 		}
 	}
 }
+
+// TestLosslessShare: a lossless two-port (a reactive ladder, ABCD cascade
+// of Pozar ch. 4, S from the ABCD-to-S table) absorbs nothing:
+// 1 − |S11|² − |S21|² = 0 to 1e-12.
+func TestLosslessShare(t *testing.T) {
+	const z0 = 50.0
+	for _, f := range []float64{1e6, 7.1e6, 13e6, 30e6} {
+		w := 2 * math.Pi * f
+		m := shuntY(complex(0, w*270e-12)).then(seriesZ(complex(0, w*0.84e-6))).then(shuntY(complex(0, w*470e-12))).
+			then(seriesZ(complex(0, w*0.84e-6))).then(shuntY(complex(0, w*270e-12)))
+		den := m.A + m.B/z0 + m.C*z0 + m.D
+		s11 := (m.A + m.B/z0 - m.C*z0 - m.D) / den
+		s21 := 2 / den
+		if d := DissipatedShare(s11, s21); math.Abs(d) > 1e-12 {
+			t.Errorf("f=%g: lossless ladder absorbs %g", f, d)
+		}
+	}
+}
+
+// TestWithQScales: the calibrated netlist scales each q= point and keeps
+// everything else; it parses again with the scaled Q.
+func TestWithQScales(t *testing.T) {
+	src := "port in a z=50\nport out b z=50\ninductor L1 a b 1u q=150@7M,220@21M tol=5% # main coil\ninductor L2 b gnd 2u # no q given\ncapacitor C1 a gnd 100p\n"
+	nl, err := Parse("c.net", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := nl.WithQScales(map[string]float64{"L1": 0.5, "L2": 0.8}, []string{"calibrated"})
+	nl2, err := Parse("c2.net", out)
+	if err != nil {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	q1 := nl2.Components[0].Attrs["q"].Points
+	if q1[0].V != 75 || q1[1].V != 110 || q1[0].F != 7e6 || q1[1].F != 21e6 {
+		t.Errorf("L1 q = %+v", q1)
+	}
+	if q2 := nl2.Components[1].Attrs["q"].Points; q2[0].V != DefaultInductorQ*0.8 {
+		t.Errorf("L2 q = %+v", q2)
+	}
+	if !strings.Contains(string(out), "tol=5% # main coil") || !strings.HasPrefix(string(out), "# calibrated\n") {
+		t.Errorf("text not kept:\n%s", out)
+	}
+}

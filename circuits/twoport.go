@@ -67,3 +67,11 @@ func DB(z complex128) float64 {
 
 // PhaseDeg returns the angle of z in degrees.
 func PhaseDeg(z complex128) float64 { return cmplx.Phase(z) * 180 / math.Pi }
+
+// DissipatedShare is the share of the power incident at port 1 that a
+// two-port turns into heat with port 2 matched: 1 − |S11|² − |S21|²
+// (power waves: what is neither reflected nor passed on is absorbed).
+func DissipatedShare(s11, s21 complex128) float64 {
+	a, b := cmplx.Abs(s11), cmplx.Abs(s21)
+	return 1 - a*a - b*b
+}

@@ -69,10 +69,12 @@ func WriteTouchstone(w io.Writer, v *SweepView) error {
 	fmt.Fprintf(&b, "[Number of Frequencies] %d\n", len(v.Points))
 	fmt.Fprintf(&b, "[Reference] %s %s\n", g(real(v.Z1)), g(real(v.Z2)))
 	b.WriteString("[Network Data]\n")
+	// every digit that round-trips: the file can come back in as a block
+	gx := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 	for _, p := range v.Points {
 		fmt.Fprintf(&b, "%s %s %s %s %s %s %s %s %s\n", g(p.F),
-			g(real(p.S11)), g(imag(p.S11)), g(real(p.S21)), g(imag(p.S21)),
-			g(real(p.S12)), g(imag(p.S12)), g(real(p.S22)), g(imag(p.S22)))
+			gx(real(p.S11)), gx(imag(p.S11)), gx(real(p.S21)), gx(imag(p.S21)),
+			gx(real(p.S12)), gx(imag(p.S12)), gx(real(p.S22)), gx(imag(p.S22)))
 	}
 	b.WriteString("[End]\n")
 	_, err := io.WriteString(w, b.String())
