@@ -14,6 +14,7 @@ type ReportDoc struct {
 	Bank     *stress.Bank
 	Filters  []FilterPlot // one per section, same order
 	CautionV float64      // node voltage above which the caution is stressed
+	Subject  string       // page-header subject when not an audit (e.g. a comparison)
 }
 
 // FilterPlot is the data for one filter's response plot.

@@ -144,6 +144,9 @@ func newPDF(doc *ReportDoc) *pdfw {
 }
 
 func reportSubject(b *stress.Bank) string {
+	if b == nil {
+		return ""
+	}
 	var files []string
 	for _, s := range b.Sections {
 		files = append(files, s.File)
@@ -169,7 +172,9 @@ func (p *pdfw) header() {
 		p.text(colMuted)
 		p.cellAt(marginL, 9, bodyW/2, 4, "RF stress report", "L")
 		right := reportSubject(p.doc.Bank)
-		if len(p.doc.Bank.Sections) > 2 {
+		if p.doc.Subject != "" {
+			right = p.doc.Subject
+		} else if len(p.doc.Bank.Sections) > 2 {
 			right = fmt.Sprintf("stress audit of %d netlists", len(p.doc.Bank.Sections))
 		}
 		p.cellAt(marginL+bodyW/2, 9, bodyW/2, 4, p.fit(right, bodyW/2), "R")
