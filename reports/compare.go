@@ -89,15 +89,15 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 }
 
 type jsonCompare struct {
-	File       string          `json:"file"`
-	Measured   string          `json:"measured"`
-	SpanHz     [2]float64      `json:"measured_span_hz"`
-	PowerW     float64         `json:"power_w"`
-	Worst      jsonWorstGroup  `json:"largest_difference_db"`
-	Carriers   []jsonHeat      `json:"carriers"`
-	Fit        *jsonFit        `json:"fit,omitempty"`
-	Calibrated string          `json:"calibrated_netlist,omitempty"`
-	Points     []jsonCmpPoint  `json:"points"`
+	File       string         `json:"file"`
+	Measured   string         `json:"measured"`
+	SpanHz     [2]float64     `json:"measured_span_hz"`
+	PowerW     float64        `json:"power_w"`
+	Worst      jsonWorstGroup `json:"largest_difference_db"`
+	Carriers   []jsonHeat     `json:"carriers"`
+	Fit        *jsonFit       `json:"fit,omitempty"`
+	Calibrated string         `json:"calibrated_netlist,omitempty"`
+	Points     []jsonCmpPoint `json:"points"`
 }
 
 type jsonWorst struct {
@@ -137,12 +137,12 @@ type jsonFit struct {
 }
 
 type jsonCmpPoint struct {
-	Hz        float64  `json:"hz"`
-	Where     string   `json:"where"`
-	ModelS21  *float64 `json:"model_s21_db"`
-	MeasS21   *float64 `json:"measured_s21_db"`
-	ModelS11  *float64 `json:"model_s11_db"`
-	MeasS11   *float64 `json:"measured_s11_db"`
+	Hz       float64  `json:"hz"`
+	Where    string   `json:"where"`
+	ModelS21 *float64 `json:"model_s21_db"`
+	MeasS21  *float64 `json:"measured_s21_db"`
+	ModelS11 *float64 `json:"model_s11_db"`
+	MeasS11  *float64 `json:"measured_s11_db"`
 }
 
 func jw(w stress.Worst) jsonWorst {
