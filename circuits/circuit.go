@@ -20,6 +20,7 @@ type Element struct {
 	esr    float64
 	df     float64
 	meas   *measuredData // measured impedance (parts) or S-parameters (blocks)
+	line   *LineSpec     // lines only; shared by scaled copies, never changed
 }
 
 type mutual struct {

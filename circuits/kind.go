@@ -53,6 +53,9 @@ type KindSpec struct {
 	// Prepare, when set, reads the kind's solver attributes into the
 	// element when the circuit is built.
 	Prepare func(e *Element)
+	// Check, when set, reports kind-specific input errors of a parsed
+	// statement (ranges, node rules) through errf.
+	Check func(c *Component, errf func(pos Pos, want, format string, args ...any))
 }
 
 var kindSpecs = map[Kind]*KindSpec{}

@@ -534,9 +534,16 @@ func (p *parser) component(ln int, kind Kind, f []Field, attrs Attrs) {
 	}
 	adj := p.adjust(kind, f[0].Text, v, valueOK, attrs)
 	if okName && valueOK && nodesOK && len(nodes) >= 2 {
-		p.nl.Components = append(p.nl.Components, &Component{
+		c := &Component{
 			Name: f[0].Text, Kind: kind, A: nodes[0], B: nodes[1], Nodes: nodes, Value: v, Pos: p.pos(ln, f[0].Col), Attrs: attrs, Adjust: adj,
-		})
+		}
+		nerr := len(p.errs)
+		if spec.Check != nil {
+			spec.Check(c, p.errorf)
+		}
+		if len(p.errs) == nerr {
+			p.nl.Components = append(p.nl.Components, c)
+		}
 	}
 }
 

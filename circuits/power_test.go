@@ -55,7 +55,8 @@ func TestPowerBalance(t *testing.T) {
 				var sParts complex128
 				var pParts float64
 				for i, ps := range r.Parts {
-					s := ps.V * cmplx.Conj(ps.I)
+					// a two-port part (line) takes power at both ends
+					s := ps.V*cmplx.Conj(ps.I) + ps.V2*cmplx.Conj(ps.I2)
 					sParts += s
 					pParts += ps.Ploss
 					// Re(V·I*) of an uncoupled part is its dissipation; a

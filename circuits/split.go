@@ -19,15 +19,21 @@ type Split struct {
 	V, I, L  [2][]complex128
 	V2, I2   [2][]complex128 // second-port states of two-port kinds
 	R        []float64       // loss resistance per element at F
-	Node     [2][]complex128
-	Vin      [2]complex128
-	Zs       complex128
+	// Ports marks elements whose loss is the power into their two ports
+	// (lines), not R·|I|².
+	Ports []bool
+	Node  [2][]complex128
+	Vin   [2]complex128
+	Zs    complex128
 }
 
 // NewSplit allocates a split for c.
 func NewSplit(c *Circuit) *Split {
 	n, nn := len(c.Elements), len(c.Nodes)
-	s := &Split{R: make([]float64, n)}
+	s := &Split{R: make([]float64, n), Ports: make([]bool, n)}
+	for i := range c.Elements {
+		_, s.Ports[i] = c.Elements[i].Model.(Dissipator)
+	}
 	for k := 0; k < 2; k++ {
 		s.V[k] = make([]complex128, n)
 		s.I[k] = make([]complex128, n)
@@ -118,7 +124,11 @@ func (s *Split) Part(i int, alpha, e complex128) PartState {
 	lam := (s.L[0][i] + alpha*s.L[1][i]) * e
 	v2 := (s.V2[0][i] + alpha*s.V2[1][i]) * e
 	i2 := (s.I2[0][i] + alpha*s.I2[1][i]) * e
-	return PartState{V: v, I: cur, Lambda: lam, V2: v2, I2: i2, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
+	st := PartState{V: v, I: cur, Lambda: lam, V2: v2, I2: i2, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
+	if s.Ports[i] {
+		st.Ploss = real(v*conj(cur)) + real(v2*conj(i2))
+	}
+	return st
 }
 
 // InputPower is the power the source delivers into the network (load

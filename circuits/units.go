@@ -52,6 +52,13 @@ func ParseValue(s string, want ...string) (float64, error) {
 		}
 		return v * 1e-6, nil
 	}
+	// lengths also take centimetres and feet (international foot, 0.3048 m)
+	if (rest == "cm" || rest == "ft") && len(want) > 0 && unitAllowed("m", want) {
+		if rest == "cm" {
+			return v * 1e-2, nil
+		}
+		return v * 0.3048, nil
+	}
 	// A bare unit ("50ohm", "1F") or a prefix followed by a unit or nothing.
 	for _, u := range units {
 		if rest == u {

@@ -97,7 +97,7 @@ func TestParseValueErrors(t *testing.T) {
 		{"5%", []string{"F"}, "unit % does not fit here (unit F)"},
 		{"15mm2", []string{"m"}, "unit mm2 does not fit here (unit m)"},
 		{"9cm2", []string{"H"}, "unit cm2 does not fit here (unit H)"},
-		{"1cm", []string{"m"}, `"1cm" has an unknown prefix or unit "cm" (SI prefixes f p n u µ m k M G, then a unit)`},
+		{"1cm", []string{"F"}, `"1cm" has an unknown prefix or unit "cm" (SI prefixes f p n u µ m k M G, then a unit)`},
 		{"3pX", []string{"F"}, `"3pX" has an unknown unit "X" (expected unit F)`},
 	}
 	for _, tc := range cases {

@@ -1,0 +1,137 @@
+package circuits
+
+import (
+	"math"
+	"math/cmplx"
+)
+
+// Wave is a voltage or current along a line as forward and backward
+// travelling parts referred to end 1: X(z) = F·e^{−γz} + B·e^{γz}.
+type Wave struct{ F, B complex128 }
+
+// At is the wave's phasor at distance z for propagation constant g.
+func (w Wave) At(g complex128, z float64) complex128 {
+	gz := g * complex(z, 0)
+	return w.F*cmplx.Exp(-gz) + w.B*cmplx.Exp(gz)
+}
+
+// Lin returns w0 + a·w1: the wave of a superposed solution.
+func Lin(w0, w1 Wave, a complex128) Wave {
+	return Wave{w0.F + a*w1.F, w0.B + a*w1.B}
+}
+
+// VoltageWaves returns the voltage and current waves of a line whose end 1
+// has voltage v1 and current i1 into it.
+func (l *LineSpec) VoltageWaves(v1, i1 complex128) (v, i Wave) {
+	fv, bv, fi, bi := l.Waves(v1, i1)
+	return Wave{fv, bv}, Wave{fi, bi}
+}
+
+// samplesPerHalfWave sets the scan density of MaxAlong before refinement:
+// the standing wave repeats every half wavelength, and |X0| + r·|X1| has at
+// most a few crests per repeat.
+const samplesPerHalfWave = 32
+
+// MaxAlong returns the largest value over 0 ≤ z ≤ Len of
+//
+//	g(z) = |w0(z)| + r·|w1(z)|
+//
+// and where it occurs, at f. With r = 0 it is the crest of one standing
+// wave; with w0 = X0 + c·X1, w1 = X1 and r the radius of the circle that
+// the superposition weight α runs on (centre c), it is the largest |X0 + α·X1|
+// over the whole circle and the whole line, which no sampled load exceeds.
+//
+// For a lossy line the crests have no closed form, so the wave is scanned
+// at 32 points per half wavelength, every scanned crest that could hold the
+// maximum (its sample plus a Lipschitz bound on g over one step reaches the
+// best sample) is bracketed by its neighbours and refined by golden-section
+// search, and the result is never below any sample.
+func (l *LineSpec) MaxAlong(f float64, w0, w1 Wave, r float64) (max, at float64) {
+	g := l.Gamma(f)
+	L := l.Len
+	eval := func(z float64) float64 {
+		v := cmplx.Abs(w0.At(g, z))
+		if r > 0 {
+			v += r * cmplx.Abs(w1.At(g, z))
+		}
+		return v
+	}
+	if !(L > 0) {
+		return eval(0), 0
+	}
+	n := 2
+	if b := imag(g); b > 0 {
+		n = int(math.Ceil(L / (math.Pi / b) * samplesPerHalfWave))
+	}
+	if n < 2 {
+		n = 2
+	}
+	if n > 1<<22 {
+		n = 1 << 22 // a line of over 100 000 wavelengths: still dense enough per crest for the bound below
+	}
+	h := L / float64(n)
+	// Lipschitz bound: |X'(z)| = |γ|·|−F e^{−γz} + B e^{γz}| ≤ |γ|(|F| + |B|·e^{αL}) for α ≥ 0
+	grow := math.Exp(real(g) * L)
+	lip := cmplx.Abs(g) * (cmplx.Abs(w0.F) + cmplx.Abs(w0.B)*grow + r*(cmplx.Abs(w1.F)+cmplx.Abs(w1.B)*grow))
+	z := func(k int) float64 {
+		if k >= n {
+			return L
+		}
+		return float64(k) * h
+	}
+	// pass 1: the best sample
+	best, bestZ := -1.0, 0.0
+	for k := 0; k <= n; k++ {
+		if v := eval(z(k)); v > best {
+			best, bestZ = v, z(k)
+		}
+	}
+	// pass 2: refine each crest that could beat it
+	prev2, prev := math.Inf(-1), eval(0)
+	for k := 1; k <= n+1; k++ {
+		next := math.Inf(-1)
+		if k <= n {
+			next = eval(z(k))
+		}
+		if prev >= prev2 && prev >= next && prev+lip*h >= best {
+			lo, hi := z(k-2), z(k)
+			if k-2 < 0 {
+				lo = 0
+			}
+			if zm, v := golden(eval, lo, hi); v > best {
+				best, bestZ = v, zm
+			}
+		}
+		prev2, prev = prev, next
+	}
+	return best, bestZ
+}
+
+// golden finds the maximum of a unimodal f on [a, b] by golden-section
+// search to a bracket of 1e-12 of its width, ends included.
+func golden(f func(float64) float64, a, b float64) (float64, float64) {
+	const invPhi = 0.6180339887498949
+	best, bz := f(a), a
+	if v := f(b); v > best {
+		best, bz = v, b
+	}
+	c, d := b-invPhi*(b-a), a+invPhi*(b-a)
+	fc, fd := f(c), f(d)
+	for i := 0; i < 60 && b-a > 1e-12*(math.Abs(a)+math.Abs(b)+1e-9); i++ {
+		if fc >= fd {
+			b, d, fd = d, c, fc
+			c = b - invPhi*(b-a)
+			fc = f(c)
+		} else {
+			a, c, fc = c, d, fd
+			d = a + invPhi*(b-a)
+			fd = f(d)
+		}
+	}
+	for _, p := range [][2]float64{{c, fc}, {d, fd}} {
+		if p[1] > best {
+			best, bz = p[1], p[0]
+		}
+	}
+	return bz, best
+}
