@@ -47,6 +47,7 @@ type Part struct {
 	vpk, vrms, pmax *circuits.Attr
 	irms            *circuits.Attr
 	prof            *Profile
+	line            *circuits.LineSpec // lines: loss against frequency, for the heating limit
 }
 
 // Set is every part of a netlist prepared for judging.
@@ -156,6 +157,9 @@ func preparePart(c *circuits.Component, cores map[string]*CoreInfo, prof *Profil
 		p.prepareWinding(c, cores)
 	case circuits.Resistor:
 		p.Class = ClassResistor
+	case circuits.Line:
+		p.Class = ClassLine
+		p.prepareLine(c)
 	}
 	return p
 }
@@ -273,6 +277,9 @@ func (p *Part) Limits(f float64) []Limit {
 	case circuits.Resistor:
 		given(Pdiss, p.pmax, p.Class)
 		given(Vpk, p.vpk, p.Class)
+	case circuits.Line:
+		given(Vpk, p.vpk, p.Class)
+		out = append(out, p.lineHeatLimit(f))
 	}
 	return out
 }

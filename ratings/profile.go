@@ -20,6 +20,7 @@ const (
 	ClassInductor     = "inductor"         // the winding
 	ClassCore         = "core"             // the magnetic core
 	ClassResistor     = "resistor"
+	ClassLine         = "line" // transmission line: dielectric and heating
 )
 
 // classQuantities says which quantities each derating class may carry a
@@ -32,6 +33,7 @@ var classQuantities = map[string][]Quantity{
 	ClassInductor:     {Irms, Jrms},
 	ClassCore:         {Bpk},
 	ClassResistor:     {Pdiss, Vpk},
+	ClassLine:         {Vpk, Pm},
 }
 
 // Profile is a set of derating factors: the share of each absolute rating a
@@ -69,6 +71,7 @@ var builtinProfiles = map[string]*Profile{
 		ClassInductor:     {Irms: 0.8, Jrms: 0.8},
 		ClassCore:         {Bpk: 0.8},
 		ClassResistor:     {Pdiss: 0.5, Vpk: 0.8},
+		ClassLine:         {Vpk: 0.6, Pm: 0.8},
 	}},
 	"strict": {Name: "strict", TempMargin: 25, Factors: map[string]map[Quantity]float64{
 		ClassCapacitor1:   {Vpk: 0.5, Vrms: 0.5, Irms: 0.6, Pdiss: 0.5},
@@ -78,6 +81,7 @@ var builtinProfiles = map[string]*Profile{
 		ClassInductor:     {Irms: 0.7, Jrms: 0.7},
 		ClassCore:         {Bpk: 0.7},
 		ClassResistor:     {Pdiss: 0.4, Vpk: 0.7},
+		ClassLine:         {Vpk: 0.5, Pm: 0.7},
 	}},
 }
 
@@ -120,7 +124,7 @@ func (p *Profile) clone() *Profile {
 
 // Classes lists the derating classes in a fixed order.
 func Classes() []string {
-	return []string{ClassCapacitor1, ClassCapacitor2, ClassCapacitorAir, ClassCapacitor, ClassInductor, ClassCore, ClassResistor}
+	return []string{ClassCapacitor1, ClassCapacitor2, ClassCapacitorAir, ClassCapacitor, ClassInductor, ClassCore, ClassResistor, ClassLine}
 }
 
 // LoadProfile returns a built-in profile by name (standard, strict, none)

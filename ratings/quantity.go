@@ -29,10 +29,12 @@ const (
 	Bpk   Quantity = "bpk"   // peak flux density in the core, T
 	Temp  Quantity = "temp"  // absolute temperature of the wound core, °C
 	Jrms  Quantity = "jrms"  // RMS current density on the wire's conducting area, A/m²
+	// Pm is a line's dissipation per metre at its hottest point, W/m.
+	Pm Quantity = "pm"
 )
 
 // Quantities lists every quantity in report order.
-var Quantities = []Quantity{Vpk, Vrms, Irms, Pdiss, Bpk, Temp, Jrms}
+var Quantities = []Quantity{Vpk, Vrms, Irms, Pdiss, Bpk, Temp, Jrms, Pm}
 
 // Unit is the SI unit a quantity is measured in.
 func (q Quantity) Unit() string {
@@ -49,6 +51,8 @@ func (q Quantity) Unit() string {
 		return "°C"
 	case Jrms:
 		return "A/m²"
+	case Pm:
+		return "W/m"
 	}
 	return ""
 }
@@ -190,6 +194,8 @@ func BuyRating(q Quantity, stress, factor float64) (value float64, text string) 
 		return 0, "core at " + strconv.FormatFloat(stress, 'f', 0, 64) + " °C: more cooling surface, less loss, or a material rated hotter"
 	case Jrms:
 		return 0, "current density " + formatDensity(stress) + ": thicker wire (or stranded/strip conductor)"
+	case Pm:
+		return 0, "hottest metre dissipates " + circuits.FormatSI(stress, "W/m") + ": a line of lower loss or higher power rating, or a lower SWR on it"
 	}
 	return 0, "—"
 }

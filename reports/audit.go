@@ -27,6 +27,8 @@ func unitOf(q ratings.Quantity) string {
 		return "°C"
 	case ratings.Jrms:
 		return "A/mm²"
+	case ratings.Pm:
+		return "W/m"
 	}
 	return ""
 }
@@ -48,6 +50,8 @@ func QuantityLabel(q ratings.Quantity) string {
 		return "temperature"
 	case ratings.Jrms:
 		return "current density"
+	case ratings.Pm:
+		return "hottest metre"
 	}
 	return string(q)
 }
@@ -85,6 +89,8 @@ func ValueText(k circuits.Kind, v float64) string {
 		return circuits.FormatSI(v, "F")
 	case circuits.Inductor:
 		return circuits.FormatSI(v, "H")
+	case circuits.Line:
+		return circuits.FormatSI(v, "m") // a line's value is its length
 	}
 	return circuits.FormatSI(v, "Ω")
 }

@@ -28,6 +28,7 @@ type PerQuantity[T comparable] struct {
 	Bpk   T `json:"bpk,omitempty"`
 	Temp  T `json:"temp_c,omitempty"`
 	Jrms  T `json:"jrms,omitempty"`
+	Pm    T `json:"pm_w_per_m,omitempty"`
 }
 
 func (s *PerQuantity[T]) set(q ratings.Quantity, v T) {
@@ -46,6 +47,8 @@ func (s *PerQuantity[T]) set(q ratings.Quantity, v T) {
 		s.Temp = v
 	case ratings.Jrms:
 		s.Jrms = v
+	case ratings.Pm:
+		s.Pm = v
 	}
 }
 
@@ -190,7 +193,7 @@ func WriteAuditJSON(w io.Writer, doc *JSONAudit) error { return writeJSON(w, doc
 // header.
 func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 	cw := csv.NewWriter(w)
-	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "temp_c", "jrms_a_per_m2", "vpk_case", "irms_case", "part_verdict", "part_utilization"})
+	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "vpk_case", "irms_case", "part_verdict", "part_utilization"})
 	for _, s := range b.Sections {
 		for _, p := range s.Parts {
 			for _, k := range p.ByKind {

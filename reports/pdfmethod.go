@@ -55,7 +55,7 @@ func (p *pdfw) method() {
 
 // profileQ are the quantities a derating profile can carry factors for,
 // in the order printed.
-var profileQ = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Jrms}
+var profileQ = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Jrms, ratings.Pm}
 
 // profiles prints each derating profile used, once.
 func (p *pdfw) profiles() {
@@ -77,7 +77,7 @@ func (p *pdfw) profiles() {
 		for _, q := range profileQ {
 			titles = append(titles, QuantityLabel(q))
 		}
-		cols := widths(titles, []float64{24, 12, 12, 12, 12, 14, 14}, "LRRRRRR")
+		cols := widths(titles, []float64{22, 11, 11, 11, 11, 13, 13, 12}, "LRRRRRRR")
 		var rows []trow
 		for _, class := range ratings.Classes() {
 			m, ok := pr.Factors[class]

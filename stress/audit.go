@@ -10,7 +10,7 @@ import (
 )
 
 // Quantities audited per part, in report order.
-var Quantities = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp, ratings.Jrms}
+var Quantities = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp, ratings.Jrms, ratings.Pm}
 
 // CaseKind says what terminates the antenna port in a case.
 type CaseKind int
@@ -186,7 +186,7 @@ func classOf(k CaseKind) int {
 	return hNormal
 }
 
-const nQ = 7
+const nQ = 8
 
 const (
 	qVpk = iota
@@ -196,6 +196,7 @@ const (
 	qBpk
 	qTemp
 	qJrms
+	qPm
 )
 
 // accum is the running worst of one part.
@@ -233,6 +234,7 @@ type workspace struct {
 	sqIJ  [nClass][]float64 // Σ I² weighted by the wire's conducting area, carrier over harmonic
 	sumP  [nClass][]float64
 	nodeH [nClass][]float64
+	pmH   [nClass][]float64 // lines: Σ over harmonics of the hottest metre's dissipation
 	lim   []partLimits
 	acc   []accum
 	// limits per part at the current carrier
@@ -261,6 +263,7 @@ func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 		w.sqIJ[k] = make([]float64, n)
 		w.sumP[k] = make([]float64, n)
 		w.nodeH[k] = make([]float64, len(c.Nodes))
+		w.pmH[k] = make([]float64, n)
 	}
 	return w
 }
@@ -371,6 +374,11 @@ func (e *Engine) evalNode(w *workspace, ni, ci, cls int, alpha complex128, scale
 // evalPart computes part i's stresses at one case and keeps the worst.
 // It allocates nothing: this is the inner loop of every audit and trial.
 func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha complex128, scale, k, f float64) {
+	if l := w.c.Elements[i].Line(); l != nil {
+		// a line's stresses lie along it: from its port phasors
+		e.evalLine(w, l, i, ci, kind, cls, alpha, 0, scale, k, f, allQ)
+		return
+	}
 	s := w.carr
 	v := cmplx.Abs(s.V[0][i]+alpha*s.V[1][i]) * scale
 	cur := cmplx.Abs(s.I[0][i]+alpha*s.I[1][i]) * scale
@@ -406,6 +414,11 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 			has[qJrms] = true
 		}
 	}
+	e.keep(w, i, ci, kind, &q, &has)
+}
+
+// keep folds one case's quantities of part i into its running worst.
+func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, has *[nQ]bool) {
 	a := &w.acc[i]
 	a.kindSeen[kind] = true
 	lim := &w.lim[i]
@@ -463,6 +476,10 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		e.evalPart(w, i, first+j, Circle, hNormal, a, scale, k, f)
 	}
 	for i := range w.c.Elements {
+		if l := w.c.Elements[i].Line(); l != nil {
+			e.lineCircle(w, l, i, first, ca, ra, scale, k, f)
+			continue
+		}
 		for _, x := range [3][2]complex128{{s.V[0][i], s.V[1][i]}, {s.I[0][i], s.I[1][i]}, {s.L[0][i], s.L[1][i]}} {
 			j := e.worstPhase(s, x[0], x[1], ca, ra)
 			visit(j, i)
@@ -562,6 +579,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 		clear(w.sqIJ[k])
 		clear(w.sumP[k])
 		clear(w.nodeH[k])
+		clear(w.pmH[k])
 	}
 	for h, lvl := range e.levels {
 		if lvl == 0 {
@@ -598,6 +616,10 @@ func (e *Engine) harmonicSums(w *workspace) {
 				}
 			}
 			for i := range c.Elements {
+				if l := c.Elements[i].Line(); l != nil {
+					e.lineHarmonic(w, l, s, i, h, cls, eh)
+					continue
+				}
 				mv := worst(s.V[0][i], s.V[1][i]) * eh
 				mi := worst(s.I[0][i], s.I[1][i]) * eh
 				ml := worst(s.L[0][i], s.L[1][i]) * eh

@@ -49,6 +49,9 @@ func (e *Engine) judge(el circuits.Element, rp *ratings.Part, a *accum) *PartRes
 	if rp != nil {
 		p.Findings = rp.Findings
 	}
+	if l := el.Line(); l != nil {
+		p.Value = l.Len // a line's value is its length
+	}
 	for k := CaseKind(0); k < nKind; k++ {
 		if !a.kindSeen[k] {
 			continue
@@ -131,7 +134,7 @@ func safePower(q ratings.Quantity, pep, util, ambient, temp, tlim float64) float
 		return math.Inf(1)
 	}
 	switch q {
-	case ratings.Pdiss:
+	case ratings.Pdiss, ratings.Pm:
 		return pep / util
 	case ratings.Temp:
 		rise, allowed := temp-ambient, tlim-ambient

@@ -1,0 +1,183 @@
+package stress
+
+import (
+	"math"
+	"math/cmplx"
+
+	"rfstress/circuits"
+)
+
+// A transmission line's stresses are not those of its terminals: the
+// standing wave puts the peak voltage and the largest current somewhere
+// along it, and its loss is the power into both ends. The engine asks its
+// four port phasors (V, I at end 1; V2, I2 at end 2), which are linear in
+// the load weight α like every part's state, and finds:
+//
+//	vpk, vrms, irms  the crest of the standing wave over the whole length
+//	                 (circuits.LineSpec.MaxAlong, refined, never below a
+//	                 scan), harmonics added by the usual combination rules
+//	                 with each harmonic's own crest;
+//	pdiss            P_in − P_out, Re(V·I*) + Re(V2·I2*);
+//	pm               the dissipation per metre at the hottest point,
+//	                 2α·max(Z0·|I|², |V|²/Z0) at the crests: all the loss
+//	                 put in the conductor where the current peaks, or in the
+//	                 dielectric where the voltage does, whichever is larger,
+//	                 so it is never below the distortionless model's own
+//	                 α·(|V|²/Z0 + Z0·|I|²).
+//
+// On the SWR circle the weight α runs on a circle (centre c, radius r) and
+// the largest |X0 + α·X1| over the circle is |X0 + c·X1| + r·|X1| at every
+// point of the line, so the worst over the continuous circle and the whole
+// length is one MaxAlong; the dissipation over the circle has the closed
+// form of a quadratic form on a circle (lineDiss).
+
+// allQ marks every quantity.
+var allQ = [nQ]bool{true, true, true, true, true, true, true, true}
+
+// lineQ computes a line's quantities for the weight circle (c, r) at the
+// carrier (r = 0: one load, α = c). It returns where the voltage and the
+// current crest are and the weights that reach them.
+func (e *Engine) lineQ(w *workspace, l *circuits.LineSpec, i, cls int, c complex128, r, scale, k, f float64) (q [nQ]float64, has [nQ]bool, av, ai, ap complex128) {
+	s := w.carr
+	v0, i0 := l.VoltageWaves(s.V[0][i], s.I[0][i])
+	v1, i1 := l.VoltageWaves(s.V[1][i], s.I[1][i])
+	vm, zv := l.MaxAlong(f, circuits.Lin(v0, v1, c), v1, r)
+	im, zi := l.MaxAlong(f, circuits.Lin(i0, i1, c), i1, r)
+	pd, ap := lineDiss(s, i, c, r)
+	g := l.Gamma(f)
+	av = crestAlpha(v0.At(g, zv), v1.At(g, zv), c, r)
+	ai = crestAlpha(i0.At(g, zi), i1.At(g, zi), c, r)
+	vm *= scale
+	im *= scale
+	pd *= scale * scale
+	avg := e.Cond.AvgRatio
+	pm := 2 * l.Alpha(f) * math.Max(l.Z0*im*im, vm*vm/l.Z0)
+	q[qVpk] = math.Sqrt2 * (vm + k*w.pkV[cls][i])
+	q[qVrms] = math.Sqrt(vm*vm + k*k*w.sqV[cls][i])
+	q[qIrms] = math.Sqrt((im*im + k*k*w.sqI[cls][i]) * avg)
+	q[qPdiss] = (pd + k*k*w.sumP[cls][i]) * avg
+	q[qPm] = (pm + k*k*w.pmH[cls][i]) * avg
+	has[qVpk], has[qVrms], has[qIrms], has[qPdiss], has[qPm] = true, true, true, true, true
+	return
+}
+
+// evalLine keeps a line's quantities at one case (weight circle (c, r);
+// r = 0 for a single load).
+func (e *Engine) evalLine(w *workspace, l *circuits.LineSpec, i, ci int, kind CaseKind, cls int, c complex128, r, scale, k, f float64, mask [nQ]bool) {
+	q, has, _, _, _ := e.lineQ(w, l, i, cls, c, r, scale, k, f)
+	for qi := range has {
+		has[qi] = has[qi] && mask[qi]
+	}
+	e.keep(w, i, ci, kind, &q, &has)
+}
+
+// lineCircle keeps a line's worst over the continuous SWR circle, each
+// quantity credited to the sampled phase nearest the load that reaches it.
+func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca complex128, ra, scale, k, f float64) {
+	q, has, av, ai, ap := e.lineQ(w, l, i, hNormal, ca, ra, scale, k, f)
+	for _, grp := range []struct {
+		alpha complex128
+		qs    []int
+	}{{av, []int{qVpk, qVrms}}, {ai, []int{qIrms, qPm}}, {ap, []int{qPdiss}}} {
+		var h [nQ]bool
+		for _, qi := range grp.qs {
+			h[qi] = has[qi]
+		}
+		e.keep(w, i, first+e.phaseOfAlpha(w.carr, grp.alpha), Circle, &q, &h)
+	}
+}
+
+// lineHarmonic adds one harmonic's worst line stresses for case class cls
+// (open, short, or the normal load set) into the workspace sums.
+func (e *Engine) lineHarmonic(w *workspace, l *circuits.LineSpec, s *circuits.Split, i, h, cls int, eh float64) {
+	f := s.F
+	type circ struct {
+		c complex128
+		r float64
+	}
+	var cs []circ
+	switch {
+	case cls == hOpen:
+		cs = []circ{{0, 0}}
+	case cls == hShort:
+		cs = []circ{{s.Alpha(circuits.Short), 0}}
+	case len(e.circle) == 0:
+		cs = []circ{{s.Alpha(circuits.Load{Z: w.c.Zout}), 0}}
+	default:
+		if ca, ra, ok := e.alphaCircle(s); ok {
+			cs = []circ{{ca, ra}}
+		} else {
+			for _, ld := range e.circle {
+				cs = append(cs, circ{s.Alpha(ld), 0})
+			}
+		}
+	}
+	v0, i0 := l.VoltageWaves(s.V[0][i], s.I[0][i])
+	v1, i1 := l.VoltageWaves(s.V[1][i], s.I[1][i])
+	var vm, im, pd float64
+	for _, x := range cs {
+		a, _ := l.MaxAlong(f, circuits.Lin(v0, v1, x.c), v1, x.r)
+		b, _ := l.MaxAlong(f, circuits.Lin(i0, i1, x.c), i1, x.r)
+		p, _ := lineDiss(s, i, x.c, x.r)
+		vm, im, pd = math.Max(vm, a), math.Max(im, b), math.Max(pd, p)
+	}
+	vm, im, pd = vm*eh, im*eh, pd*eh*eh
+	w.pkV[cls][i] += vm
+	w.sqV[cls][i] += vm * vm
+	w.sqI[cls][i] += im * im
+	w.sqIJ[cls][i] += im * im
+	w.sumP[cls][i] += pd
+	w.pmH[cls][i] += 2 * l.Alpha(f) * math.Max(l.Z0*im*im, vm*vm/l.Z0)
+}
+
+// lineDiss is the largest line dissipation, for a 1 V EMF, over the weight
+// circle α = c + r·u, |u| = 1, and the weight that reaches it. With a, b
+// the end-1 voltage and current and c2, d the end-2 ones, all linear in α,
+//
+//	D(α) = Re(a·b*) + Re(c2·d*) = M + Re(α·N) + |α|²·K
+//
+// and on the circle D = const + r·Re(u·(N + 2K·c̄)), largest where u lines
+// up with the conjugate of N + 2K·c̄.
+func lineDiss(s *circuits.Split, i int, c complex128, r float64) (float64, complex128) {
+	a0, a1 := s.V[0][i], s.V[1][i]
+	b0, b1 := s.I[0][i], s.I[1][i]
+	c0, c1 := s.V2[0][i], s.V2[1][i]
+	d0, d1 := s.I2[0][i], s.I2[1][i]
+	M := real(a0*cmplx.Conj(b0)) + real(c0*cmplx.Conj(d0))
+	N := a1*cmplx.Conj(b0) + cmplx.Conj(a0)*b1 + c1*cmplx.Conj(d0) + cmplx.Conj(c0)*d1
+	K := real(a1*cmplx.Conj(b1)) + real(c1*cmplx.Conj(d1))
+	cc := real(c)*real(c) + imag(c)*imag(c)
+	base := M + real(c*N) + K*(cc+r*r)
+	z := N + complex(2*K, 0)*cmplx.Conj(c)
+	if r == 0 || cmplx.Abs(z) == 0 {
+		return base, c
+	}
+	u := cmplx.Conj(z) / complex(cmplx.Abs(z), 0)
+	return base + r*cmplx.Abs(z), c + complex(r, 0)*u
+}
+
+// crestAlpha is the weight on the circle (c, r) that makes |x0 + α·x1|
+// largest: α = c + r·u with r·u·x1 along x0 + c·x1.
+func crestAlpha(x0, x1, c complex128, r float64) complex128 {
+	if r == 0 || x1 == 0 {
+		return c
+	}
+	m := x0 + c*x1
+	if cmplx.Abs(m) == 0 {
+		return c + complex(r, 0)
+	}
+	d := m / x1
+	return c + complex(r, 0)*d/complex(cmplx.Abs(d), 0)
+}
+
+// phaseOfAlpha is the sampled SWR-circle phase nearest the load that gives
+// weight α.
+func (e *Engine) phaseOfAlpha(s *circuits.Split, alpha complex128) int {
+	n := len(e.circle)
+	if alpha == 0 || n == 0 {
+		return 0
+	}
+	z := -s.Voc/alpha - s.Zth
+	th := circuits.ReflectionAngle(e.C.Zout, z)
+	return int(math.Round(th/(2*math.Pi)*float64(n))) % n
+}
