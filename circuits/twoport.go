@@ -17,15 +17,37 @@ type SParams struct {
 // TwoPort solves the network at f with both ports terminated in their own
 // impedances: one factorisation, two excitations.
 func (c *Circuit) TwoPort(f float64) (SParams, error) {
-	load := Load{Z: c.Zout}
-	fz, err := c.Factor(f, &load)
-	if err != nil {
+	return NewTwoPortWork(c).At(f)
+}
+
+// TwoPortWork keeps the storage of two-port solves (the ordering of the
+// unknowns, the factorisation, the excitation vector), so a sweep or a
+// table of harmonics plans and allocates once.
+type TwoPortWork struct {
+	c    *Circuit
+	load Load
+	fz   *Factorization
+	x    []complex128
+}
+
+// NewTwoPortWork prepares two-port solves of c.
+func NewTwoPortWork(c *Circuit) *TwoPortWork {
+	w := &TwoPortWork{c: c, load: Load{Z: c.Zout}}
+	w.fz = c.newFactorization(&w.load)
+	w.x = make([]complex128, w.fz.N())
+	return w
+}
+
+// At solves the network at f with both ports terminated.
+func (w *TwoPortWork) At(f float64) (SParams, error) {
+	c, fz := w.c, w.fz
+	if err := fz.Refactor(f); err != nil {
 		return SParams{F: f}, err
 	}
-	n := fz.N()
 	r1, r2 := math.Sqrt(real(c.Zin)), math.Sqrt(real(c.Zout))
 	z1c, z2c := conj(c.Zin), conj(c.Zout)
-	x := make([]complex128, n)
+	x := w.x
+	clear(x)
 	sp := SParams{F: f}
 
 	// drive port 1 with E = 1: a1 = 1/(2√R1)

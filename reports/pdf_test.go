@@ -102,6 +102,7 @@ func demoDoc(t *testing.T, srcs []netSrc, trials int) *ReportDoc {
 			}
 			sec.Tolerance = tol
 		}
+		sec.Harmonics = eng.HarmonicLines()
 		secs = append(secs, sec)
 		doc.Filters = append(doc.Filters, FilterPlot{Sweep: eng.Sweep(200), BandLo: cond.BandLo, BandHi: cond.BandHi,
 			Harmonics: sec.Harmonics, Extra: cond.CarrierAlso})

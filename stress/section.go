@@ -38,7 +38,6 @@ func (e *Engine) Audit() (*Section, error) {
 			s.SafeW, s.LimitPart, s.LimitQ = p.SafeW, p.Name, p.Limiting
 		}
 	}
-	s.Harmonics = e.harmonicLines()
 	return s, nil
 }
 
@@ -149,10 +148,12 @@ func safePower(q ratings.Quantity, pep, util, ambient, temp, tlim float64) float
 	return pep / (util * util)
 }
 
-// harmonicLines gives the filter's matched response at the harmonics of
-// the band centre, for the report.
-func (e *Engine) harmonicLines() []HarmonicLine {
+// HarmonicLines gives the filter's matched response at the harmonics of
+// the band centre. Only the PDF shows it, so it is computed when a report
+// asks, not in every audit.
+func (e *Engine) HarmonicLines() []HarmonicLine {
 	fc := (e.Cond.BandLo + e.Cond.BandHi) / 2
+	tw := circuits.NewTwoPortWork(e.C)
 	var out []HarmonicLine
 	for n := 1; n <= e.Cond.HarmonicMax; n++ {
 		lvl := 0.0
@@ -162,7 +163,7 @@ func (e *Engine) harmonicLines() []HarmonicLine {
 				lvl = e.Cond.HarmonicDBc[i]
 			}
 		}
-		sp, err := e.C.TwoPort(float64(n) * fc)
+		sp, err := tw.At(float64(n) * fc)
 		if err != nil {
 			continue
 		}
@@ -191,10 +192,11 @@ func (e *Engine) Sweep(n int) []SweepPoint {
 			lo = f / 2
 		}
 	}
+	tw := circuits.NewTwoPortWork(e.C)
 	var out []SweepPoint
 	for i := 0; i < n; i++ {
 		f := lo * math.Pow(hi/lo, float64(i)/float64(n-1))
-		sp, err := e.C.TwoPort(f)
+		sp, err := tw.At(f)
 		if err != nil {
 			continue
 		}
@@ -275,9 +277,11 @@ type Section struct {
 	MaxNodeAt   string  // node name
 	MaxNodeCase int
 	Findings    []ratings.Finding
-	Harmonics   []HarmonicLine
-	Profile     *ratings.Profile
-	Tolerance   *Tolerance
+	// Harmonics is left empty by Audit: only the PDF shows it, and the
+	// caller that writes one fills it from Engine.HarmonicLines.
+	Harmonics []HarmonicLine
+	Profile   *ratings.Profile
+	Tolerance *Tolerance
 }
 
 // Case returns case i of the section.

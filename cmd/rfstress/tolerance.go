@@ -92,6 +92,9 @@ func buildReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64) 
 	doc := &reports.ReportDoc{Tool: "rfstress " + Version, Date: reportDate(), Bank: b, CautionV: cautionV}
 	for i, e := range engines {
 		s := b.Sections[i]
+		if s.Harmonics == nil {
+			s.Harmonics = e.HarmonicLines()
+		}
 		doc.Filters = append(doc.Filters, reports.FilterPlot{Sweep: e.Sweep(240), BandLo: s.Conditions.BandLo,
 			BandHi: s.Conditions.BandHi, Harmonics: s.Harmonics, Extra: s.Conditions.CarrierAlso})
 	}
