@@ -247,6 +247,7 @@ type Factorization struct {
 	lu   *LU
 	mat  []complex128
 	y    []complex128 // permuted right-hand side
+	sys  System
 }
 
 // Factor assembles and factorises the network at f with the given load
@@ -301,16 +302,20 @@ func (fz *Factorization) Refactor(f float64) error {
 		fz.plan(f)
 	}
 	var err error
+	// the System lives in the Factorization: handed to the kinds' Stamp
+	// methods it would otherwise be moved to the heap on every call
+	s := &fz.sys
 	if fz.band != nil {
-		s := System{N: fz.n, perm: fz.perm, band: fz.band}
-		fz.C.stamp(&s, f, fz.Load)
+		*s = System{N: fz.n, perm: fz.perm, band: fz.band}
+		fz.C.stamp(s, f, fz.Load)
 		if s.outside {
 			fz.plan(f)
 			return fz.Refactor(f)
 		}
 		err = fz.band.Factor()
 	} else {
-		fz.C.stamp(&System{N: fz.n, M: fz.mat}, f, fz.Load)
+		*s = System{N: fz.n, M: fz.mat}
+		fz.C.stamp(s, f, fz.Load)
 		err = fz.lu.Factor(fz.mat)
 	}
 	if err != nil {
@@ -392,14 +397,16 @@ func nodeV(x []complex128, i int) complex128 {
 func (c *Circuit) PartStates(x []complex128, f float64, out []PartState) {
 	for i := range c.Elements {
 		e := &c.Elements[i]
-		st := e.Model.State(e, x, f)
+		// the state goes straight into out: a pointer to a local handed
+		// to an interface method would move it to the heap every call
+		out[i] = e.Model.State(e, x, f)
+		st := &out[i]
 		if d, ok := e.Model.(Dissipator); ok {
-			st.Ploss = d.Dissipation(e, &st, f)
+			st.Ploss = d.Dissipation(e, st, f)
 		} else {
 			r := e.Model.LossR(e, f)
 			st.Ploss = r * (real(st.I)*real(st.I) + imag(st.I)*imag(st.I))
 		}
-		out[i] = st
 	}
 	for _, mu := range c.mutuals {
 		M := complex(mu.k*math.Sqrt(c.Elements[mu.i].Value*c.Elements[mu.j].Value), 0)
