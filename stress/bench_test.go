@@ -7,6 +7,7 @@ import (
 	"os"
 	"strings"
 	"testing"
+	"time"
 
 	"rfstress/circuits"
 )
@@ -181,3 +182,68 @@ func benchLadderAudit(b *testing.B, parts int) {
 func BenchmarkLadderAudit100(b *testing.B)  { benchLadderAudit(b, 100) }
 func BenchmarkLadderAudit1000(b *testing.B) { benchLadderAudit(b, 1000) }
 func BenchmarkLadderAudit5000(b *testing.B) { benchLadderAudit(b, 5000) }
+
+// heavy audit of the issue: 201 carriers, 3600 phases, push-pull
+// harmonics to the 9th, open and short.
+var benchHeavy = append(append([]string{}, benchDefault...), "points=201", "phases=3600")
+
+// scalarRate measures the machine's scalar floating-point rate in flop/s
+// with the loop of BenchmarkScalarRate, so a benchmark can state its flop
+// bound from the same run.
+func scalarRate() float64 {
+	const iters = 20_000_000
+	a0, a1, a2, a3 := 1.0, 1.1, 1.2, 1.3
+	const m, c = 0.999999, 1e-7
+	start := time.Now()
+	for i := 0; i < iters; i++ {
+		a0 = a0*m + c
+		a1 = a1*m + c
+		a2 = a2*m + c
+		a3 = a3*m + c
+	}
+	d := time.Since(start)
+	if a0+a1+a2+a3 == 0 {
+		panic("unreachable")
+	}
+	return 8 * iters / d.Seconds()
+}
+
+// BenchmarkAuditHeavyFlopBound runs the heavy audit and reports, beside
+// its time, the time the solver's own arithmetic would take at the
+// scalar rate measured in the same run: per carrier and per harmonic one
+// factorisation and two solves (Factorization.Flops).
+func BenchmarkAuditHeavyFlopBound(b *testing.B) {
+	fx := build(b, benchSource(b), benchHeavy...)
+	fz, err := fx.c.Factor(3.6e6, nil)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ff, fs := fz.Flops()
+	fills := 0
+	for range fx.eng.carriers {
+		fills++
+		for _, l := range fx.eng.levels {
+			if l > 0 {
+				fills++
+			}
+		}
+	}
+	rate := scalarRate()
+	bound := float64(fills) * (ff + 2*fs) / rate
+	b.ReportAllocs()
+	for b.Loop() {
+		// the whole audit as a caller has it: limits asked of the
+		// ratings layer, every case, the verdicts
+		e, err := NewEngine(fx.c, fx.rs, fx.cond)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := e.Audit(); err != nil {
+			b.Fatal(err)
+		}
+	}
+	per := b.Elapsed().Seconds() / float64(b.N)
+	b.ReportMetric(bound*1e3, "bound-ms")
+	b.ReportMetric(per/bound, "x-bound")
+	b.ReportMetric(rate/1e9, "Gflop/s")
+}
