@@ -179,9 +179,36 @@ func buildCore(s *circuits.Core, mats map[string]*Material, usedBy string, errs 
 			"core %s (used by %s) has too little geometry (%s)", s.Name, usedBy, got)
 	}
 	_, namesMaterial := s.Attrs["material"]
-	if c.AL == 0 && c.Mu == 0 && !(namesMaterial && c.Material == nil) { // an unknown material is reported already
+	_, hasMu := s.Attrs["mu"]
+	_, hasAL := s.Attrs["al"]
+	switch {
+	case namesMaterial && c.Material == nil:
+		// an unknown material is reported already
+	case c.Material.Magnetic() && !hasMu && !hasAL && c.Material.Mu == 0:
+		add(s.Pos, "mu= (e.g. mu=10) or al= on the core, or a material statement with mu=",
+			"core %s (used by %s): material %s is a class and gives no permeability", s.Name, usedBy, c.Material.Name)
+	case c.AL == 0 && c.Mu == 0:
 		add(s.Pos, "al=, mu=, or material= naming a material with mu=",
 			"core %s (used by %s) has neither an AL value nor a permeability", s.Name, usedBy)
 	}
 	return c
+}
+
+// Volume is the core body's volume: π/4·(OD² − ID²)·h for a toroid of
+// given dimensions, else Ae·le. 0 when unknown.
+func (c *CoreInfo) Volume() float64 {
+	if c.OD > 0 && c.ID > 0 && c.H > 0 && c.OD > c.ID {
+		return math.Pi / 4 * (c.OD*c.OD - c.ID*c.ID) * c.H
+	}
+	return c.Ae * c.Le
+}
+
+// HeatCapacity is the core body's heat capacity in J/K: volume × the
+// material's density × its specific heat. 0 without a material (no
+// credit is taken for an unknown body).
+func (c *CoreInfo) HeatCapacity() float64 {
+	if c.Material == nil {
+		return 0
+	}
+	return c.Volume() * c.Material.Density * c.Material.SpecHeat
 }

@@ -52,10 +52,10 @@ func FuzzLoadProfile(f *testing.F) {
 
 func FuzzLoadMaterials(f *testing.F) {
 	for _, s := range []string{
-		"", "material a class=iron mu=10 tmax=125C flux=15mT@1M,3mT@28M note=x\n",
+		"", "material a class=iron mu=10 tmax=125C guide=15mT@1M,3mT@28M bsat=1T note=x\n",
 		"material b class=air\nmaterial b class=air\n", "port in a z=50\n", "material\n",
-		"material c class=mnzn flux=3mT@28M,15mT@1M\n", "title x\nmaterial d class=nizn mu=1e400\n",
-		"\xff", "material e class=iron flux=1e-320\n", "material f class=iron tmax=1e3C\r\n",
+		"material c class=mnzn guide=3mT@28M,15mT@1M\n", "title x\nmaterial d class=nizn mu=1e400\n",
+		"\xff", "material e class=iron guide=1e-320\n", "material f class=iron tmax=1e3C\r\n",
 		"material rfstress-mat-a class=iron\n", "resistor rfstress-mat-r a b 1\n",
 	} {
 		f.Add(s)
@@ -93,7 +93,8 @@ func FuzzPrepare(f *testing.F) {
 					if l.Abs != l.Abs || l.Derated != l.Derated {
 						t.Fatalf("%s %s at %g: NaN limit %+v", n, l.Quantity, fr, l)
 					}
-					p.Remedy(l, 2*l.Abs+1, fr, 25)
+					p.Remedy(l, 2*l.Abs+1, RemedyContext{F: fr, Ambient: 25, Irms: 1, Pavg: 1, KeyDown: 60})
+					p.Heating(1, 60, Duty{On: 15, Period: 30})
 				}
 				p.CopperR(fr)
 				p.TempRise(1)

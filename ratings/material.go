@@ -2,6 +2,7 @@ package ratings
 
 import (
 	"fmt"
+	"math"
 	"sort"
 	"strings"
 	"unicode"
@@ -10,20 +11,27 @@ import (
 	"rfstress/circuits"
 )
 
-// Material is a core material: permeability, the hottest the core may run
-// and a guide peak flux density against frequency.
+// Material is a core material: its class, permeability and the three
+// figures its core limits come from: saturation flux density (a rating),
+// the hottest the core may run (a rating) and a heating guide for the flux
+// at average power (advice only).
 type Material struct {
 	Name  string
-	Class string // iron, nizn, mnzn or air
-	Note  string // short description for reports
-	Mu    float64
-	Tmax  float64          // °C; 0: no temperature limit known
-	Flux  []circuits.Point // guide peak flux density (T) against f; nil: no flux limit
-	// FluxFromClass is set when a user material gave no flux= and took the
-	// guide of its class's built-in material.
-	FluxFromClass bool
-	Builtin       bool
-	Pos           circuits.Pos // where it is defined; zero for built-in ones
+	Class string  // iron, nizn, mnzn or air
+	Note  string  // short description for reports
+	Mu    float64 // initial relative permeability; 0: not given (a core must give mu= or al=)
+	Tmax  float64 // °C; 0: no temperature limit known
+	Bsat  float64 // saturation flux density, T; 0: none (air)
+	// BsatGiven is set when bsat= was written rather than taken from the class.
+	BsatGiven bool
+	// Guide is the material's own heating-guide points (peak flux density
+	// in T against f); nil: the class law GuideAnchor·√(1 MHz/f).
+	Guide       []circuits.Point
+	GuideAnchor float64 // class heating guide at 1 MHz, T; 0: none (air)
+	Density     float64 // kg/m³ of the core body, for its heat capacity
+	SpecHeat    float64 // J/(kg·K)
+	Builtin     bool
+	Pos         circuits.Pos // where it is defined; zero for built-in ones
 }
 
 // Describe is the material as reports name it: its note, else its name.
@@ -34,64 +42,73 @@ func (m *Material) Describe() string {
 	return m.Name
 }
 
-// GuideFlux is the guide peak flux density at f, interpolated log-log
-// between the points and held at the end values outside them; 0 when the
-// material has no flux limit.
+// Magnetic reports whether the material is of a magnetic class.
+func (m *Material) Magnetic() bool { return m != nil && m.Class != "air" }
+
+// GuideRef is the frequency the class heating guide is anchored at.
+const GuideRef = 1e6
+
+// GuideFlux is the heating-guide peak flux density at f: the material's
+// own points when it has them (interpolated log-log, held at the end
+// values outside them), else the class law B₁·√(1 MHz/f). The law is our
+// own formulation: if the core's loss per cycle grows as B² (the low-flux,
+// Rayleigh-like region), the loss density grows as f·B², and holding it
+// at a constant allowed value gives B ∝ f^−½. 0 when the material has no
+// guide (air).
 func (m *Material) GuideFlux(f float64) float64 {
-	if m == nil || len(m.Flux) == 0 {
+	if m == nil {
 		return 0
 	}
-	return circuits.InterpLogLog(m.Flux, f)
-}
-
-func pts(s ...float64) []circuits.Point {
-	var p []circuits.Point
-	for i := 0; i+1 < len(s); i += 2 {
-		p = append(p, circuits.Point{V: s[i], F: s[i+1]})
+	if len(m.Guide) > 0 {
+		return circuits.InterpLogLog(m.Guide, f)
 	}
-	return p
+	if m.GuideAnchor <= 0 || !(f > 0) {
+		return 0
+	}
+	return m.GuideAnchor * math.Sqrt(GuideRef/f)
 }
 
-// builtins are generic materials, described by class and permeability,
-// not by any maker's grade. All figures are ours: common practice, from
-// memory. Iron powder is limited by ageing of its organic binder, which
-// sets in above about 125 °C; ferrites by loss growth well before their
-// Curie temperature. Guide flux for powdered iron is roughly 15 mT near
-// 1 MHz falling to 3 mT near 28 MHz; the higher-permeability grades and
-// the ferrites are lossier at HF and get lower guides.
-var builtins = []Material{
-	{Name: "iron-mu7", Class: "iron", Note: "carbonyl iron, µi≈7", Mu: 7, Tmax: 125,
-		Flux: pts(15e-3, 1e6, 10e-3, 3.5e6, 6e-3, 7e6, 4.5e-3, 14e6, 3e-3, 28e6)},
-	{Name: "iron-mu10", Class: "iron", Note: "carbonyl iron, µi≈10", Mu: 10, Tmax: 125,
-		Flux: pts(15e-3, 1e6, 10e-3, 3.5e6, 6e-3, 7e6, 4.5e-3, 14e6, 3e-3, 28e6)},
-	{Name: "iron-mu20", Class: "iron", Note: "carbonyl iron, µi≈20", Mu: 20, Tmax: 125,
-		Flux: pts(12e-3, 1e6, 8e-3, 3.5e6, 5e-3, 7e6, 3.5e-3, 14e6, 2.5e-3, 28e6)},
-	{Name: "iron-mu35", Class: "iron", Note: "hydrogen-reduced iron, µi≈35", Mu: 35, Tmax: 125,
-		Flux: pts(12e-3, 1e6, 7e-3, 3.5e6, 4e-3, 7e6, 2.5e-3, 14e6, 1.5e-3, 28e6)},
-	{Name: "nizn-mu40", Class: "nizn", Note: "NiZn ferrite, µi≈40", Mu: 40, Tmax: 125,
-		Flux: pts(8e-3, 1e6, 5e-3, 3.5e6, 3.5e-3, 7e6, 2.5e-3, 14e6, 1.5e-3, 28e6)},
-	{Name: "nizn-mu125", Class: "nizn", Note: "NiZn ferrite, µi≈125", Mu: 125, Tmax: 125,
-		Flux: pts(6e-3, 1e6, 3.5e-3, 3.5e6, 2.5e-3, 7e6, 1.5e-3, 14e6, 1e-3, 28e6)},
-	{Name: "mnzn-mu850", Class: "mnzn", Note: "MnZn ferrite, µi≈850", Mu: 850, Tmax: 100,
-		Flux: pts(5e-3, 1e6, 2e-3, 3.5e6, 1e-3, 7e6, 0.6e-3, 14e6, 0.4e-3, 28e6)},
-	{Name: "mnzn-mu2000", Class: "mnzn", Note: "MnZn ferrite, µi≈2000", Mu: 2000, Tmax: 100,
-		Flux: pts(3e-3, 1e6, 1.2e-3, 3.5e6, 0.6e-3, 7e6, 0.3e-3, 14e6, 0.2e-3, 28e6)},
+// Copper figures for the winding's heat capacity: density of copper
+// 8960 kg/m³ (handbook value) and specific heat 385 J/(kg·K) (from memory;
+// handbooks give 0.385 J/(g·K) at room temperature).
+const (
+	CopperDensity  = 8960.0
+	CopperSpecHeat = 385.0
+)
+
+// classes are the built-in materials: one per class, described by what it
+// is, with no maker's grades. All figures are ours, common practice and
+// from memory, chosen at the conservative end of the range we recall:
+//
+//   - tmax: powdered iron is limited by ageing of its organic binder above
+//     about 125 °C; ferrites by loss growth well below their Curie
+//     temperature (NiZn about 125 °C, MnZn about 100 °C usable).
+//   - bsat: powdered iron saturates softly, bulk figures of about 1 T are
+//     quoted; NiZn ferrite 0.25–0.35 T, MnZn 0.35–0.5 T (we take the low
+//     ends).
+//   - heating-guide anchor at 1 MHz: powdered iron 10–20 mT (we take 15);
+//     ferrites are lossier at HF: NiZn 8 mT, MnZn 3 mT.
+//   - density and specific heat for the core's heat capacity: powdered iron
+//     in binder about 5 g/cm³ and 0.45 J/(g·K) (iron itself 0.45); ferrite
+//     about 4.6–4.9 g/cm³ and 0.7–1.1 J/(g·K) (we take 0.7).
+//
+// Air has no saturation, no guide and no temperature limit, and its
+// former is given no heat capacity.
+var classes = []Material{
+	{Name: "iron", Class: "iron", Note: "powdered iron", Tmax: 125, Bsat: 1.0, GuideAnchor: 15e-3, Density: 5000, SpecHeat: 450},
+	{Name: "nizn", Class: "nizn", Note: "NiZn ferrite", Tmax: 125, Bsat: 0.25, GuideAnchor: 8e-3, Density: 4600, SpecHeat: 700},
+	{Name: "mnzn", Class: "mnzn", Note: "MnZn ferrite", Tmax: 100, Bsat: 0.35, GuideAnchor: 3e-3, Density: 4800, SpecHeat: 700},
 	{Name: "air", Class: "air", Note: "air or non-magnetic former", Mu: 1},
 }
 
-// classDefault is the built-in material whose guide and temperature a user
-// material of the class takes when it gives none: the most conservative of
-// the class.
-var classDefault = map[string]string{"iron": "iron-mu10", "nizn": "nizn-mu125", "mnzn": "mnzn-mu2000", "air": "air"}
+var classNames = []string{"iron", "nizn", "mnzn", "air"}
 
-var classes = []string{"iron", "nizn", "mnzn", "air"}
-
-// Builtin returns a fresh copy of the built-in materials by name.
+// Builtin returns a fresh copy of the built-in materials by name: the
+// four classes.
 func Builtin() map[string]*Material {
-	out := make(map[string]*Material, len(builtins))
-	for _, m := range builtins {
+	out := make(map[string]*Material, len(classes))
+	for _, m := range classes {
 		c := m
-		c.Flux = append([]circuits.Point(nil), m.Flux...)
 		c.Builtin = true
 		out[c.Name] = &c
 	}
@@ -132,33 +149,32 @@ func materialNames(mats map[string]*Material) string {
 	return strings.Join(ns, ", ")
 }
 
-// maxFlux catches unit slips: no core material runs near 2 T, let alone at
-// RF, so "flux=15" (tesla) was surely meant as 15 mT.
+// maxFlux catches unit slips: no core material saturates above 2 T, let
+// alone runs near it at RF, so "guide=15" (tesla) was surely meant as 15 mT.
 const maxFlux = 2.0
 
 // materialFrom reads the meaning of one material statement, adding an
 // error for each attribute that is wrong. It returns nil when the
-// statement cannot be used.
+// statement cannot be used. What the statement leaves out comes from its
+// class.
 func materialFrom(s *circuits.Material, errs *circuits.ErrorList) *Material {
 	add := func(pos circuits.Pos, want, format string, args ...any) {
 		*errs = append(*errs, &circuits.Error{Pos: pos, Msg: fmt.Sprintf(format, args...), Want: want})
 	}
-	m := &Material{Name: s.Name, Pos: s.Pos}
-	ok := true
 	ca, has := s.Attrs["class"]
 	if !has || len(ca.Words) == 0 {
 		return nil // the parser has already said class= is required
 	}
-	m.Class = strings.ToLower(ca.Words[0])
-	if _, known := classDefault[m.Class]; !known {
-		add(ca.ValPos, "one of "+strings.Join(classes, ", "), "unknown material class %q", ca.Words[0])
+	def := classByName(strings.ToLower(ca.Words[0]))
+	if def == nil {
+		add(ca.ValPos, "one of "+strings.Join(classNames, ", "), "unknown material class %q", ca.Words[0])
 		return nil
 	}
-	def := builtinByName(classDefault[m.Class])
+	m := *def
+	m.Name, m.Pos, m.Builtin, m.Note = s.Name, s.Pos, false, ""
+	ok := true
 	if a, has := s.Attrs["mu"]; has {
 		m.Mu = a.Num
-	} else if m.Class == "air" {
-		m.Mu = 1
 	}
 	if a, has := s.Attrs["tmax"]; has {
 		if !(a.Num > 0 && a.Num <= 1000) {
@@ -166,25 +182,30 @@ func materialFrom(s *circuits.Material, errs *circuits.ErrorList) *Material {
 			ok = false
 		}
 		m.Tmax = a.Num
-	} else {
-		m.Tmax = def.Tmax
 	}
-	if a, has := s.Attrs["flux"]; has {
+	if a, has := s.Attrs["bsat"]; has {
 		if m.Class == "air" {
-			add(a.ValPos, "no flux= on class air (it has no flux limit), or another class", "flux= given for an air material")
+			add(a.ValPos, "no bsat= on class air (it does not saturate), or another class", "bsat= given for an air material")
+			ok = false
+		} else if a.Num > maxFlux {
+			add(a.ValPos, "a saturation flux density such as 0.3T or 300mT", "bsat %s T is above any core material (unit slip?)", trimNum(a.Num))
+			ok = false
+		}
+		m.Bsat, m.BsatGiven = a.Num, true
+	}
+	if a, has := s.Attrs["guide"]; has {
+		if m.Class == "air" {
+			add(a.ValPos, "no guide= on class air (it has no core loss), or another class", "guide= given for an air material")
 			ok = false
 		}
 		for _, p := range a.Points {
 			if p.V > maxFlux {
-				add(a.ValPos, "a peak flux density such as 15mT or 15mT@1M,3mT@28M", "flux %s T is far above any core material (unit slip? write mT)", trimNum(p.V))
+				add(a.ValPos, "a peak flux density such as 15mT or 15mT@1M,3mT@28M", "guide %s T is far above any core material (unit slip? write mT)", trimNum(p.V))
 				ok = false
 				break
 			}
 		}
-		m.Flux = append([]circuits.Point(nil), a.Points...)
-	} else if len(def.Flux) > 0 {
-		m.Flux = append([]circuits.Point(nil), def.Flux...)
-		m.FluxFromClass = true
+		m.Guide = append([]circuits.Point(nil), a.Points...)
 	}
 	if a, has := s.Attrs["note"]; has {
 		// the netlist splits on spaces, so a note is one token; _ reads as a space
@@ -193,16 +214,16 @@ func materialFrom(s *circuits.Material, errs *circuits.ErrorList) *Material {
 	if !ok {
 		return nil
 	}
-	return m
+	return &m
 }
 
-func builtinByName(name string) *Material {
-	for i := range builtins {
-		if builtins[i].Name == name {
-			return &builtins[i]
+func classByName(name string) *Material {
+	for i := range classes {
+		if classes[i].Name == name {
+			return &classes[i]
 		}
 	}
-	return &Material{}
+	return nil
 }
 
 func trimNum(v float64) string { return fmt.Sprintf("%.4g", v) }
@@ -238,7 +259,7 @@ func LoadMaterials(path string, src []byte) (map[string]*Material, error) {
 		errs = append(errs, &circuits.Error{
 			Pos:  circuits.Pos{File: path, Line: i + 1, Col: col},
 			Msg:  fmt.Sprintf("%q has no place in a materials file", word),
-			Want: "material lines only: material NAME class=iron|nizn|mnzn|air mu=… tmax=… flux=…",
+			Want: "material lines only: material NAME class=iron|nizn|mnzn|air mu=… tmax=… bsat=… guide=…",
 		})
 		lines[i] = ""
 	}

@@ -259,14 +259,21 @@ func (p *Part) Limits(f float64) []Limit {
 		if p.irms != nil || p.Wire == 0 {
 			out = append(out, p.currentLimit(f, false))
 		}
-		// A non-magnetic former has no flux limit, and no temperature
-		// limit unless its material gives tmax=.
+		// Three core limits, judged apart: saturation (a rating), the
+		// heating guide (advice) and temperature (a rating). A
+		// non-magnetic former has neither saturation nor guide, and no
+		// temperature limit unless its material gives tmax=.
 		m := (*Material)(nil)
 		if p.Core != nil {
 			m = p.Core.Material
 		}
-		if p.Core != nil && p.Turns > 0 && p.Core.Ae > 0 && (m == nil || len(m.Flux) > 0) {
-			out = append(out, p.fluxLimit(f))
+		if p.Core != nil && p.Turns > 0 && p.Core.Ae > 0 {
+			if m == nil || m.Bsat > 0 {
+				out = append(out, p.satLimit())
+			}
+			if m.GuideFlux(f) > 0 {
+				out = append(out, p.guideLimit(f))
+			}
 		}
 		if p.Core != nil && p.Area > 0 && (m == nil || m.Tmax > 0) {
 			out = append(out, p.tempLimit())
@@ -342,22 +349,35 @@ func (p *Part) currentLimit(f float64, capacitor bool) Limit {
 	return l
 }
 
-func (p *Part) fluxLimit(f float64) Limit {
+// satLimit is the saturation rating: the material's bsat, derated by the
+// profile's core factor.
+func (p *Part) satLimit() Limit {
 	fac := p.prof.Factor(ClassCore, Bpk)
 	l := Limit{Quantity: Bpk, Factor: fac}
 	m := p.Core.Material
-	switch {
-	case m == nil:
-		l.Basis = fmt.Sprintf("not rated: core %s names no material= with a flux guide", p.Core.Name)
-	case len(m.Flux) == 0:
-		l.Basis = fmt.Sprintf("not rated: material %s has no flux guide", m.Name)
-	default:
-		g := m.GuideFlux(f)
-		l.Abs, l.Derated = g, g*fac
-		l.Basis = fmt.Sprintf("guide flux, %s, at %s", m.Describe(), circuits.FormatSI(f, "Hz"))
-		if m.FluxFromClass {
-			l.Basis += fmt.Sprintf(" (material %s gave no flux=: the %s class guide)", m.Name, m.Class)
-		}
+	if m == nil || m.Bsat <= 0 {
+		l.Basis = fmt.Sprintf("not rated: core %s names no material= with a saturation flux density", p.Core.Name)
+		return l
+	}
+	l.Abs, l.Derated = m.Bsat, m.Bsat*fac
+	l.Basis = fmt.Sprintf("saturation %s of %s (peak flux at PEP, harmonics added)", circuits.FormatSI(m.Bsat, "T"), m.Describe())
+	if !m.BsatGiven {
+		l.Basis += fmt.Sprintf(", the %s class figure (from memory)", m.Class)
+	}
+	return l
+}
+
+// guideLimit is the heating guide at f: advice, never a rating. Its
+// stress is the peak flux at average power.
+func (p *Part) guideLimit(f float64) Limit {
+	m := p.Core.Material
+	g := m.GuideFlux(f)
+	l := Limit{Quantity: Bavg, Abs: g, Derated: g, Factor: 1, Advice: true}
+	if len(m.Guide) > 0 {
+		l.Basis = fmt.Sprintf("heating guide of %s at %s (its own points); advice, not a rating", m.Describe(), circuits.FormatHz(f))
+	} else {
+		l.Basis = fmt.Sprintf("heating guide of the %s class, %s·√(1 MHz/f) = %s at %s (loss ∝ f·B², our formulation); advice, not a rating",
+			m.Class, circuits.FormatSI(m.GuideAnchor, "T"), circuits.FormatSI(g, "T"), circuits.FormatHz(f))
 	}
 	return l
 }
@@ -460,67 +480,191 @@ func (p *Part) HeatingDensity(f0 float64, irms, freqs []float64) float64 {
 	return math.Sqrt(s / a0)
 }
 
+// RemedyContext is what a remedy needs besides the limit and the stress:
+// the carrier, the ambient, the part's worst RMS current and, for
+// temperature, the average dissipation and the heating time and duty the
+// audit judged.
+type RemedyContext struct {
+	F       float64 // Hz
+	Ambient float64 // °C
+	Irms    float64 // A; 0 if unknown
+	Pavg    float64 // W, average dissipation at the temperature's worst case
+	KeyDown float64 // s; 0 or +Inf: steady state
+	Duty    Duty
+}
+
 // Remedy says what would bring stress within the derated limit l (as
-// returned by Limits at f): a rating to buy, or for flux, temperature and
-// current density the change in figures. ambient (°C) is used for Temp
-// only. "" when the stress is already within the limit.
-func (p *Part) Remedy(l Limit, stress, f, ambient float64) string {
+// returned by Limits at ctx.F): a rating to buy, or for flux, temperature
+// and current density physical changes with figures. Each, applied to the
+// netlist, passes (tests apply them). "" when the stress is already within
+// the limit.
+func (p *Part) Remedy(l Limit, stress float64, ctx RemedyContext) string {
 	if l.Abs > 0 && stress <= l.Derated {
 		return ""
 	}
 	switch l.Quantity {
-	case Bpk:
+	case Bpk, Bavg:
 		if l.Derated <= 0 || p.Core == nil {
 			break
 		}
-		// at fixed L and I, B = I·sqrt(L·µ0·µ/(Ae·le)): scale µ/(Ae·le) by r⁻²
-		r := stress / l.Derated
-		k := p.Core
-		v := k.Ae * k.Le
-		s := fmt.Sprintf("at the same inductance: a core with Ae·le ≥ %s (this one %s)", volume(v*r*r), volume(v))
-		if k.Mu > 0 {
-			s += fmt.Sprintf(", or permeability ≤ %.3g (this one %.3g)", k.Mu/(r*r), k.Mu)
+		s := p.FluxFix(stress/l.Derated, ctx.Irms, ctx.F).String(p)
+		if l.Quantity == Bavg {
+			s = "advice: " + s
 		}
 		return s
 	case Temp:
 		if l.Abs <= 0 {
 			return "name a core material with tmax= to rate the temperature"
 		}
-		allowed, rise := l.Derated-ambient, stress-ambient
-		need := fmt.Sprintf("a material rated ≥ %.0f °C", stress+(l.Abs-l.Derated))
-		if allowed <= 0 || rise <= 0 || p.Area <= 0 {
-			return need
+		allowed := l.Derated - ctx.Ambient
+		need := fmt.Sprintf("a material rated ≥ %.0f °C", math.Ceil(stress+(l.Abs-l.Derated)))
+		a := p.AreaFor(allowed, ctx.Pavg, ctx.KeyDown, ctx.Duty)
+		if a <= 0 {
+			return "less loss, or " + need
 		}
-		a := p.Area * math.Pow(rise/allowed, 1/TempExponent)
-		return fmt.Sprintf("cooling surface ≥ %.3g cm² (now %.3g cm²), less loss, or %s", a*1e4, p.Area*1e4, need)
+		return fmt.Sprintf("cooling surface ≥ %s cm² (now %.3g cm²; area= on the core), less loss, or %s", ceilText(a*1e4, 3), p.Area*1e4, need)
 	case Jrms:
 		if p.Wire <= 0 || l.Factor <= 0 {
 			break
 		}
-		i := stress * ConductingArea(f, p.Wire, Rho20Copper)
-		carry := func(d float64) float64 {
-			return l.Factor * DensityLimit(f, d, Rho20Copper) * ConductingArea(f, d, Rho20Copper)
-		}
-		lo, hi := p.Wire, p.Wire
-		for carry(hi) < i && hi < 1 {
-			hi *= 2
-		}
-		if carry(hi) < i {
+		d := WireFor(stress*ConductingArea(ctx.F, p.Wire, Rho20Copper), ctx.F, l.Factor)
+		if d <= 0 {
 			return "more than 1 m of copper diameter: split the current"
 		}
-		for n := 0; n < 60; n++ {
-			mid := (lo + hi) / 2
-			if carry(mid) >= i {
-				hi = mid
-			} else {
-				lo = mid
-			}
-		}
-		d := math.Ceil(hi*1e3/0.05-1e-9) * 0.05 // to the next 0.05 mm
-		return fmt.Sprintf("wire ≥ %.2f mm", d)
+		return fmt.Sprintf("wire ≥ %.2f mm", d*1e3)
 	}
 	_, text := BuyRating(l.Quantity, stress, l.Factor)
 	return text
+}
+
+// WireFor is the copper wire diameter, rounded up to 0.05 mm, that carries
+// i (A RMS) at f within factor × the density limit. 0 when over 1 m.
+func WireFor(i, f, factor float64) float64 {
+	carry := func(d float64) float64 {
+		return factor * DensityLimit(f, d, Rho20Copper) * ConductingArea(f, d, Rho20Copper)
+	}
+	lo, hi := 0.05e-3, 0.05e-3
+	for carry(hi) < i && hi < 1 {
+		hi *= 2
+	}
+	if carry(hi) < i {
+		return 0
+	}
+	for n := 0; n < 60; n++ {
+		mid := (lo + hi) / 2
+		if carry(mid) >= i {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return math.Ceil(hi*1e3/0.05-1e-9) * 0.05e-3
+}
+
+// FluxFix is what brings a core's flux down by Ratio at the same
+// inductance and current. With L and I fixed, B = L·I/(N·Ae) and
+// L = µ0·µ·N²·Ae/le, so B = I·√(L·µ0·µ/(Ae·le)): the flux falls as the
+// square root of Ae·le/µ.
+type FluxFix struct {
+	Ratio float64 // stress over the derated limit
+	// AeLe is the least Ae·le (m⁴) of a core of the same permeability;
+	// with Ae and le both grown by Ratio the AL and the turns stay.
+	AeLe float64
+	// Stack cores of this one, wound with StackTurns turns (0: more than 8
+	// would be needed).
+	Stack, StackTurns int
+	// Mu is the highest permeability on this core, wound with MuTurns
+	// turns; 0 when it would have to fall below 1, and Air says what to
+	// wind instead.
+	Mu      float64
+	MuTurns int
+	Air     *AirCoil
+}
+
+// AirCoil is a single-layer air-wound coil of the same inductance: length
+// equal to its diameter, turns spaced one wire diameter apart (pitch 2d),
+// sized by Wheeler's formula L[µH] = D²n²/(18D + 40ℓ) with D and ℓ in
+// inches (Wheeler 1928).
+type AirCoil struct {
+	Dia, Len float64 // m, mean diameter and winding length
+	Turns    float64
+	Wire     float64 // m
+}
+
+// FluxFix works out the remedies for a flux ratio r > 1 at RMS current
+// irms and frequency f.
+func (p *Part) FluxFix(r, irms, f float64) FluxFix {
+	k := p.Core
+	fx := FluxFix{Ratio: r, AeLe: k.Ae * k.Le * r * r}
+	n := float64(p.Turns)
+	for s := int(math.Ceil(r*r - 1e-9)); s <= 8 && p.Turns > 0; s++ {
+		nt := math.Max(1, math.Round(n/math.Sqrt(float64(s))))
+		if r*n/(nt*float64(s)) <= 1 {
+			fx.Stack, fx.StackTurns = s, int(nt)
+			break
+		}
+	}
+	mu := k.Mu
+	if mu <= 0 && k.AL > 0 && k.Ae > 0 {
+		mu = k.AL * k.Le / (Mu0 * k.Ae)
+	}
+	if mu > 0 && mu/(r*r) >= 1 {
+		fx.Mu = mu / (r * r)
+		fx.MuTurns = int(math.Ceil(n*r - 1e-9))
+	} else {
+		fx.Air = airCoil(p.Value, irms, f, p.Wire)
+	}
+	return fx
+}
+
+// airCoil sizes the air-wound coil of inductance l for current irms at f:
+// the wire from the density limit (at least the present wire), pitch 2d,
+// length = diameter D, so n = D/p and L = D³/(58·p²) (inches, µH).
+func airCoil(l, irms, f, wire float64) *AirCoil {
+	w := wire
+	if irms > 0 {
+		w = math.Max(w, WireFor(irms, f, 1))
+	}
+	if w <= 0 {
+		w = 1e-3
+	}
+	pin := 2 * w / 0.0254
+	din := math.Cbrt(58 * l * 1e6 * pin * pin)
+	return &AirCoil{Dia: din * 0.0254, Len: din * 0.0254, Turns: din / pin, Wire: w}
+}
+
+// String renders the fix for people.
+func (fx FluxFix) String(p *Part) string {
+	k := p.Core
+	v := k.Ae * k.Le
+	s := fmt.Sprintf("at the same inductance: a core with Ae·le ≥ %s (this one %s; %d turns if Ae and le both grow ×%.3g)",
+		volumeUp(fx.AeLe), volume(v), p.Turns, math.Ceil(fx.Ratio*1000)/1000)
+	if fx.Stack > 0 {
+		s += fmt.Sprintf(", or %d of these cores stacked with %d turns", fx.Stack, fx.StackTurns)
+	}
+	if fx.Mu > 0 {
+		s += fmt.Sprintf(", or permeability ≤ %s with %d turns", floorText(fx.Mu, 3), fx.MuTurns)
+	} else if a := fx.Air; a != nil {
+		s += fmt.Sprintf(", or (permeability would fall below 1) an air-wound coil of the same inductance: %.3g mm diameter, %.3g mm long, %.1f turns of %.2f mm wire (Wheeler)",
+			a.Dia*1e3, a.Len*1e3, a.Turns, a.Wire*1e3)
+	}
+	return s
+}
+
+func ceilText(x float64, sig int) string {
+	if !(x > 0) || math.IsInf(x, 0) {
+		return "—"
+	}
+	p := math.Pow(10, float64(sig)-math.Ceil(math.Log10(x)))
+	return strconv.FormatFloat(math.Ceil(x*p-1e-9)/p, 'f', -1, 64)
+}
+
+func floorText(x float64, sig int) string {
+	if !(x > 0) || math.IsInf(x, 0) {
+		return "—"
+	}
+	p := math.Pow(10, float64(sig)-math.Ceil(math.Log10(x)))
+	return strconv.FormatFloat(math.Floor(x*p+1e-9)/p, 'f', -1, 64)
 }
 
 // AllFindings returns the findings of every part and of the netlist as a
@@ -543,4 +687,14 @@ func volume(v float64) string {
 		return strconv.FormatFloat(roundSig(mm3/1000, 3), 'f', -1, 64) + " cm³"
 	}
 	return strconv.FormatFloat(roundSig(mm3, 3), 'f', -1, 64) + " mm³"
+}
+
+// volumeUp is volume rounded up, so a core that meets the printed figure
+// meets the need.
+func volumeUp(v float64) string {
+	mm3 := v * 1e9
+	if mm3 >= 1000 {
+		return ceilText(mm3/1000, 3) + " cm³"
+	}
+	return ceilText(mm3, 3) + " mm³"
 }

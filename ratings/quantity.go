@@ -26,7 +26,8 @@ const (
 	Vrms  Quantity = "vrms"  // RMS voltage across the part, V
 	Irms  Quantity = "irms"  // RMS current through the part, A
 	Pdiss Quantity = "pdiss" // dissipation, W
-	Bpk   Quantity = "bpk"   // peak flux density in the core, T
+	Bpk   Quantity = "bpk"   // peak flux density in the core at PEP, T: against saturation
+	Bavg  Quantity = "bavg"  // peak flux density at average power, T: against the heating guide (advice)
 	Temp  Quantity = "temp"  // absolute temperature of the wound core, °C
 	Jrms  Quantity = "jrms"  // RMS current density on the wire's conducting area, A/m²
 	// Pm is a line's dissipation per metre at its hottest point, W/m.
@@ -34,7 +35,7 @@ const (
 )
 
 // Quantities lists every quantity in report order.
-var Quantities = []Quantity{Vpk, Vrms, Irms, Pdiss, Bpk, Temp, Jrms, Pm}
+var Quantities = []Quantity{Vpk, Vrms, Irms, Pdiss, Bpk, Bavg, Temp, Jrms, Pm}
 
 // Unit is the SI unit a quantity is measured in.
 func (q Quantity) Unit() string {
@@ -45,7 +46,7 @@ func (q Quantity) Unit() string {
 		return "A"
 	case Pdiss:
 		return "W"
-	case Bpk:
+	case Bpk, Bavg:
 		return "T"
 	case Temp:
 		return "°C"
@@ -64,6 +65,9 @@ type Limit struct {
 	Derated  float64 // Abs × Factor; for Temp the derated temperature Tmax − margin, °C
 	Factor   float64 // the derating factor used; for Temp Derated/Abs, for reading only
 	Basis    string  // where the limit comes from, for people
+	// Advice marks a guide rather than a rating: exceeding it is at most
+	// marginal, and it never sets the safe power.
+	Advice bool
 }
 
 // Verdict is the outcome of judging a stress against a limit. The order is
@@ -93,7 +97,8 @@ func (v Verdict) String() string {
 }
 
 // Judge compares a stress with a limit: ok up to the derated value,
-// marginal up to the absolute rating, fail above it. A part with no rating
+// marginal up to the absolute rating, fail above it; a guide (Advice) is
+// marginal at worst. A part with no rating
 // (Abs 0) that carries any stress is unrated. A stress that is not a number
 // fails, so a broken computation is never passed as safe.
 func Judge(stress float64, l Limit) Verdict {
@@ -109,7 +114,7 @@ func Judge(stress float64, l Limit) Verdict {
 	switch {
 	case stress <= l.Derated:
 		return OK
-	case stress <= l.Abs:
+	case stress <= l.Abs || l.Advice:
 		return Marginal
 	}
 	return Fail
@@ -190,6 +195,8 @@ func BuyRating(q Quantity, stress, factor float64) (value float64, text string) 
 		return value, "rated ≥ " + formatStep(value, "W")
 	case Bpk:
 		return 0, "peak flux " + circuits.FormatSI(stress, "T") + ": a larger core (Ae·le) or lower permeability at the same inductance"
+	case Bavg:
+		return 0, "flux at average power " + circuits.FormatSI(stress, "T") + " above the heating guide: a larger core, or check the winding warm after a low-power run"
 	case Temp:
 		return 0, "core at " + strconv.FormatFloat(stress, 'f', 0, 64) + " °C: more cooling surface, less loss, or a material rated hotter"
 	case Jrms:

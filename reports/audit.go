@@ -21,7 +21,7 @@ func unitOf(q ratings.Quantity) string {
 		return "A"
 	case ratings.Pdiss:
 		return "W"
-	case ratings.Bpk:
+	case ratings.Bpk, ratings.Bavg:
 		return "T"
 	case ratings.Temp:
 		return "°C"
@@ -45,7 +45,9 @@ func QuantityLabel(q ratings.Quantity) string {
 	case ratings.Pdiss:
 		return "dissipation"
 	case ratings.Bpk:
-		return "peak flux density"
+		return "peak flux (saturation)"
+	case ratings.Bavg:
+		return "flux at average power (heating guide)"
 	case ratings.Temp:
 		return "temperature"
 	case ratings.Jrms:
@@ -61,6 +63,8 @@ func FormatQ(q ratings.Quantity, v float64) string {
 	switch q {
 	case ratings.Temp:
 		return num(v, 0) + " °C"
+	case ratings.Bpk, ratings.Bavg:
+		return circuits.FormatSI(v, "T")
 	case ratings.Jrms:
 		return num(v/1e6, 1) + " A/mm²"
 	}
@@ -244,6 +248,7 @@ func writeSectionText(w io.Writer, s *stress.Section, width int) {
 		t.row(cells...)
 	}
 	t.write(w)
+	writeCoresText(w, s)
 	if up := s.Upgrades(); len(up) > 0 {
 		fmt.Fprintln(w, "\n   to change:")
 		for _, u := range up {
@@ -281,12 +286,13 @@ func AllFindings(s *stress.Section) []ratings.Finding {
 	return out
 }
 
-// bindingText names the quantity closest to its limit and the case.
+// bindingText names the rated quantity closest to its limit and the case;
+// a guide (advice) is named only when no rating applies.
 func bindingText(s *stress.Section, p *stress.PartResult) string {
 	var best *stress.Stress
 	for _, q := range stress.Quantities {
 		st, ok := p.Stress[q]
-		if !ok || st.Limit.Quantity == "" {
+		if !ok || st.Limit.Quantity == "" || st.Limit.Advice {
 			continue
 		}
 		if best == nil || st.Verdict > best.Verdict || st.Verdict == best.Verdict && st.Util > best.Util {
@@ -341,4 +347,95 @@ func writeTolText(w io.Writer, s *stress.Section) {
 // pct1 renders a share with one decimal, so a rare excess shows.
 func pct1(v float64) string {
 	return strconv.FormatFloat(100*v, 'f', 1, 64) + " %"
+}
+
+// writeCoresText shows each cored part's three core limits side by side:
+// saturation and temperature are ratings, the heating guide is advice,
+// and the last column names the rating that binds.
+func writeCoresText(w io.Writer, s *stress.Section) {
+	t := newTable("core", "saturation (PEP)", "use", "heating guide (avg.)", "use", "temperature", "rise use", "τ", "binds")
+	t.leftCols = 1
+	rows := 0
+	for _, p := range s.Parts {
+		if !p.Has(ratings.Bpk) && !p.Has(ratings.Temp) {
+			continue
+		}
+		rows++
+		cells := []string{p.Name}
+		for _, q := range []ratings.Quantity{ratings.Bpk, ratings.Bavg, ratings.Temp} {
+			st, ok := p.Stress[q]
+			if !ok || st.Limit.Quantity == "" {
+				cells = append(cells, "—", "")
+				continue
+			}
+			v := FormatQ(q, st.Value)
+			if st.Limit.Abs > 0 {
+				v += " / " + FormatQ(q, st.Limit.Derated)
+			}
+			use := pct(st.Util) + " " + st.Verdict.String()
+			if st.Limit.Advice && st.Verdict != ratings.OK {
+				use = pct(st.Util) + " advice"
+			}
+			cells = append(cells, v, use)
+		}
+		cells = append(cells, HeatTimeText(p.Heat), CoreBinding(p))
+		t.row(cells...)
+	}
+	if rows == 0 {
+		return
+	}
+	fmt.Fprintln(w, "\n   core limits: saturation and temperature are ratings, the heating guide is advice (never a fail)")
+	t.write(w)
+}
+
+// HeatTimeText is a part's thermal time constant and the time its
+// temperature is judged at.
+func HeatTimeText(h *stress.Heat) string {
+	if h == nil {
+		return ""
+	}
+	tau := "—"
+	if h.Tau > 0 {
+		tau = DurationText(h.Tau)
+	}
+	if math.IsInf(h.KeyDown, 1) {
+		return tau + ", steady"
+	}
+	return tau + ", after " + DurationText(h.KeyDown)
+}
+
+// DurationText renders seconds as s, min or h.
+func DurationText(sec float64) string {
+	switch {
+	case math.IsInf(sec, 0) || math.IsNaN(sec):
+		return "—"
+	case sec < 120:
+		return num(sec, 0) + " s"
+	case sec < 7200:
+		return num(sec/60, 1) + " min"
+	}
+	return num(sec/3600, 1) + " h"
+}
+
+// CoreBinding names which of a part's core limits binds: the rating with
+// the highest use, with a note when the guide is exceeded.
+func CoreBinding(p *stress.PartResult) string {
+	var best ratings.Quantity
+	u := -1.0
+	for _, q := range []ratings.Quantity{ratings.Bpk, ratings.Temp} {
+		if st, ok := p.Stress[q]; ok && st.Limit.Abs > 0 && st.Util > u {
+			best, u = q, st.Util
+		}
+	}
+	out := "no core rating"
+	switch best {
+	case ratings.Bpk:
+		out = "saturation"
+	case ratings.Temp:
+		out = "temperature"
+	}
+	if st, ok := p.Stress[ratings.Bavg]; ok && st.Verdict != ratings.OK {
+		out += " (guide exceeded: advice)"
+	}
+	return out
 }

@@ -26,6 +26,7 @@ type PerQuantity[T comparable] struct {
 	Irms  T `json:"irms,omitempty"`
 	Pdiss T `json:"pdiss,omitempty"`
 	Bpk   T `json:"bpk,omitempty"`
+	Bavg  T `json:"bavg,omitempty"`
 	Temp  T `json:"temp_c,omitempty"`
 	Jrms  T `json:"jrms,omitempty"`
 	Pm    T `json:"pm_w_per_m,omitempty"`
@@ -43,6 +44,8 @@ func (s *PerQuantity[T]) set(q ratings.Quantity, v T) {
 		s.Pdiss = v
 	case ratings.Bpk:
 		s.Bpk = v
+	case ratings.Bavg:
+		s.Bavg = v
 	case ratings.Temp:
 		s.Temp = v
 	case ratings.Jrms:
@@ -67,6 +70,7 @@ type JSONLimit struct {
 	Basis       string   `json:"basis"`
 	Utilization *float64 `json:"utilization"`
 	Verdict     string   `json:"verdict"`
+	Advice      bool     `json:"advice,omitempty"`
 	SafePowerW  *float64 `json:"safe_power_w"`
 	Buy         *float64 `json:"buy,omitempty"`
 	BuyText     string   `json:"buy_text,omitempty"`
@@ -84,7 +88,21 @@ type JSONComponent struct {
 	Utilization *float64    `json:"utilization"`
 	SafePowerW  *float64    `json:"safe_power_w"`
 	Limits      []JSONLimit `json:"limits"`
-	Findings    []string    `json:"findings,omitempty"`
+	// Binding is the rated quantity that binds; CoreBinding says which
+	// core limit binds in words
+	Binding     string    `json:"binding,omitempty"`
+	CoreBinding string    `json:"core_binding,omitempty"`
+	Heat        *JSONHeat `json:"heat,omitempty"`
+	Findings    []string  `json:"findings,omitempty"`
+}
+
+// JSONHeat is a wound core's first-order thermal state at its hottest case.
+type JSONHeat struct {
+	AvgDissipationW *float64 `json:"avg_dissipation_w"`
+	TauS            *float64 `json:"tau_s"`      // null: no heat capacity known
+	KeyDownS        *float64 `json:"key_down_s"` // null: steady state
+	SteadyC         *float64 `json:"steady_c"`
+	JudgedC         *float64 `json:"judged_c"`
 }
 
 // JSONLimiting names what sets the safe power.
@@ -156,7 +174,16 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 		doc.Sections = append(doc.Sections, js)
 		for _, p := range s.Parts {
 			jc := JSONComponent{File: s.File, Name: p.Name, Kind: string(p.Kind), Value: p.Value, Verdict: p.Verdict.String(),
-				Utilization: jsonNum(p.Util), SafePowerW: jsonNum(p.SafeW), Limits: []JSONLimit{}}
+				Utilization: jsonNum(p.Util), SafePowerW: jsonNum(p.SafeW), Limits: []JSONLimit{}, Binding: string(p.Binding)}
+			if p.Has(ratings.Bpk) || p.Has(ratings.Temp) {
+				jc.CoreBinding = CoreBinding(p)
+			}
+			if h := p.Heat; h != nil {
+				jc.Heat = &JSONHeat{AvgDissipationW: jsonNum(h.Pavg), KeyDownS: jsonNum(h.KeyDown), SteadyC: jsonNum(h.Steady), JudgedC: jsonNum(h.Judged)}
+				if h.Tau > 0 {
+					jc.Heat.TauS = jsonNum(h.Tau)
+				}
+			}
 			for _, q := range stress.Quantities {
 				st, ok := p.Stress[q]
 				if !ok {
@@ -168,7 +195,7 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 					continue
 				}
 				jl := JSONLimit{Quantity: string(q), Rating: jsonNum(st.Limit.Abs), Derated: jsonNum(st.Limit.Derated),
-					Basis: st.Limit.Basis, Utilization: jsonNum(st.Util), Verdict: st.Verdict.String(), SafePowerW: jsonNum(st.SafeW), BuyText: st.BuyText}
+					Basis: st.Limit.Basis, Utilization: jsonNum(st.Util), Verdict: st.Verdict.String(), Advice: st.Limit.Advice, SafePowerW: jsonNum(st.SafeW), BuyText: st.BuyText}
 				if st.Limit.Abs <= 0 {
 					jl.Rating, jl.Derated, jl.Utilization = nil, nil, nil
 				}
@@ -193,7 +220,7 @@ func WriteAuditJSON(w io.Writer, doc *JSONAudit) error { return writeJSON(w, doc
 // header.
 func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 	cw := csv.NewWriter(w)
-	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "vpk_case", "irms_case", "part_verdict", "part_utilization"})
+	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "bavg_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "vpk_case", "irms_case", "part_verdict", "part_utilization"})
 	for _, s := range b.Sections {
 		for _, p := range s.Parts {
 			for _, k := range p.ByKind {

@@ -25,7 +25,7 @@ const inlineNet = `# inline test lowpass
 title  Test lowpass 40 m
 port in  a z=50
 port out c z=50
-core T1 od=20mm id=11mm h=6mm material=iron-mu10
+core T1 od=20mm id=11mm h=6mm material=iron mu=10
 capacitor C1 a gnd 470p dielectric=mica q=1500 vpk=500
 inductor  L2 a b 1.2u q=150 core=T1 turns=13 wire=0.8mm
 capacitor C3 b gnd 820p dielectric=mica q=1500 vpk=300

@@ -10,7 +10,7 @@ import (
 )
 
 // Quantities audited per part, in report order.
-var Quantities = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp, ratings.Jrms, ratings.Pm}
+var Quantities = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Bavg, ratings.Temp, ratings.Jrms, ratings.Pm}
 
 // CaseKind says what terminates the antenna port in a case.
 type CaseKind int
@@ -36,6 +36,7 @@ type Case struct {
 	Load    circuits.Load
 	Theta   float64 // reflection angle on the SWR circle, degrees
 	OffBand bool    // a carrier-also frequency (wrong filter selected)
+	Exact   bool    // the continuous worst of the circle, not a sampled phase
 }
 
 // Describe renders the case for people.
@@ -48,6 +49,9 @@ func (c Case) Describe() string {
 	case Matched:
 		return f + ", matched load " + circuits.FormatComplex(c.Load.Z)
 	case Circle:
+		if c.Exact {
+			return fmt.Sprintf("%s, worst of the SWR circle Γ∠%.2f° (%s)", f, c.Theta, circuits.FormatComplex(c.Load.Z))
+		}
 		return fmt.Sprintf("%s, mismatch Γ∠%.0f° (%s)", f, c.Theta, circuits.FormatComplex(c.Load.Z))
 	case Explicit:
 		return f + ", load " + circuits.FormatComplex(c.Load.Z)
@@ -84,6 +88,10 @@ type PartResult struct {
 	Findings []ratings.Finding
 	Rating   *ratings.Part
 	ByKind   []KindWorst
+	// Binding is the rated quantity that binds: the one setting the safe
+	// power, else the one nearest its limit ("" when none is rated).
+	Binding ratings.Quantity
+	Heat    *Heat // thermal figures of a wound core; nil otherwise
 }
 
 // Engine holds what an audit reuses across tolerance trials: the circuit,
@@ -102,6 +110,8 @@ type Engine struct {
 	faults       []CaseKind
 	perCarrier   int
 	rparts       []*ratings.Part
+	forceScan    bool           // tests: scan the sampled phases instead of the exact worst
+	heatT        float64        // key-down time the temperature is judged at, s (+Inf steady)
 	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
 }
 
@@ -110,7 +120,7 @@ func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, 
 	if err := cond.Check(); err != nil {
 		return nil, err
 	}
-	e := &Engine{C: c, R: rs, Cond: cond, levels: cond.HarmonicLevels()}
+	e := &Engine{C: c, R: rs, Cond: cond, levels: cond.HarmonicLevels(), heatT: cond.HeatTime()}
 	if cond.SWR > 1 {
 		for k := 0; k < cond.Phases; k++ {
 			e.circle = append(e.circle, circuits.LoadOnCircle(c.Zout, cond.SWR, e.phaseAngle(k)))
@@ -186,7 +196,7 @@ func classOf(k CaseKind) int {
 	return hNormal
 }
 
-const nQ = 8
+const nQ = 9
 
 const (
 	qVpk = iota
@@ -194,6 +204,7 @@ const (
 	qIrms
 	qPdiss
 	qBpk
+	qBavg
 	qTemp
 	qJrms
 	qPm
@@ -209,6 +220,10 @@ type accum struct {
 	kind     [nKind][nQ]float64
 	kindCase [nKind][nQ]int
 	kindSeen [nKind]bool
+	// the thermal state at the hottest case: steady rise, time constant
+	// and the average dissipation that drives them
+	heat ratings.Heat
+	pavg float64
 }
 
 func (a *accum) reset() {
@@ -237,13 +252,19 @@ type workspace struct {
 	pmH   [nClass][]float64 // lines: Σ over harmonics of the hottest metre's dissipation
 	lim   []partLimits
 	acc   []accum
+	// record makes exact circle worst cases into cases of their own
+	// (extra, indexed from NumCases()); only the nominal audit records
+	record bool
+	extra  []Case
+	heat   ratings.Heat // the thermal state of the part evalPart last judged
 	// limits per part at the current carrier
 }
 
 // partLimits caches one part's limits at the current carrier.
 type partLimits struct {
 	derated   [nQ]float64 // 0: no limit
-	absRatio  [nQ]float64 // rating / derated limit (1/factor)
+	absRatio  [nQ]float64 // rating / derated limit (1/factor); for temp, of the allowed rises
+	advice    [nQ]bool    // a guide, not a rating
 	copperR   float64
 	areaRatio []float64 // per harmonic: wire conducting area at the carrier over that at the harmonic
 }
@@ -284,6 +305,7 @@ type nodeWorst struct {
 // run audits the workspace's circuit over every case into w.acc.
 func (e *Engine) run(w *workspace) (nodeWorst, error) {
 	c := w.c
+	w.extra = w.extra[:0]
 	for i := range w.acc {
 		w.acc[i].reset()
 	}
@@ -391,11 +413,14 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	q[qIrms] = irms
 	q[qPdiss] = (s.R[i]*cur*cur + k*k*w.sumP[cls][i]) * avg
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss] = true, true, true, true
+	var heat ratings.Heat
 	if rp := e.rparts[i]; rp != nil {
 		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
 			lam := cmplx.Abs(s.L[0][i]+alpha*s.L[1][i]) * scale
 			q[qBpk] = rp.FluxPeak(math.Sqrt2 * (lam + k*w.pkL[cls][i]))
-			has[qBpk] = true
+			// the heating guide looks at the flux of the average power
+			q[qBavg] = q[qBpk] * math.Sqrt(avg)
+			has[qBpk], has[qBavg] = true, true
 		}
 		// the winding's copper loss is a floor under the loss from Q
 		if cu := w.lim[i].copperR; cu > 0 {
@@ -404,7 +429,8 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 			}
 		}
 		if rp.Core != nil && rp.Area > 0 {
-			q[qTemp] = e.Cond.Ambient + rp.TempRise(q[qPdiss])
+			heat = rp.Heating(q[qPdiss], e.heatT, e.Cond.Duty)
+			q[qTemp] = e.Cond.Ambient + heat.Rise
 			has[qTemp] = true
 		}
 		// harmonic currents crowd into a thinner skin: weight each by the
@@ -414,6 +440,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 			has[qJrms] = true
 		}
 	}
+	w.heat = heat
 	e.keep(w, i, ci, kind, &q, &has)
 }
 
@@ -429,38 +456,40 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 		a.has[qi] = true
 		if q[qi] > a.val[qi] {
 			a.val[qi], a.valCase[qi] = q[qi], ci
+			if qi == qTemp {
+				a.heat, a.pavg = w.heat, q[qPdiss]
+			}
 		}
 		if a.kindCase[kind][qi] < 0 || q[qi] > a.kind[kind][qi] {
 			a.kind[kind][qi], a.kindCase[kind][qi] = q[qi], ci
 		}
 		if d := lim.derated[qi]; d > 0 {
-			if u := q[qi] / d; u > a.util[qi] {
+			if u := e.utilOf(qi, q[qi], d); u > a.util[qi] {
 				a.util[qi], a.utilCase[qi] = u, ci
 			}
 		}
 	}
 }
 
-// circleCases finds each part's worst phases on the SWR circle without
-// visiting every phase. The load Z(θ) and the weight α = −Voc/(Zth+Z) are
-// bilinear (Möbius) maps of Γ = |Γ|e^{jθ}, so as θ goes round, α runs
-// once round a circle, and so does any part's phasor X0 + α·X1. Its
-// magnitude |c + r·e^{jφ}| has a single maximum in φ, and φ moves
-// monotonically with θ, so among the sampled phases the worst is one of
-// the two that bracket the continuous maximum. Each quantity of a part is a
-// rising function of |V|, |I| or |λ| (harmonic terms are fixed per case
-// class), so six evaluations per part find every worst value exactly as a
-// scan of all phases would. Delivered drive scales each case differently,
-// so it scans every phase.
+// circleCases finds each part's worst loads on the SWR circle exactly,
+// not among the sampled phases. The load Z(θ) and the weight
+// α = −Voc/(Zth+Z) are bilinear (Möbius) maps of Γ = |Γ|e^{jθ}, so as θ
+// goes round, α runs once round a circle, and so does any part's phasor
+// X0 + α·X1. Its magnitude |c + r·e^{jφ}| is largest where r·e^{jφ}·X1
+// points along X0 + c·X1: one α in closed form, whose load angle θ follows
+// by inverting the map. Each quantity of a part is a rising function of
+// |V|, |I| or |λ| (harmonic terms are fixed per case class), so three
+// evaluations per part give every worst value of the continuous circle.
+// Delivered drive scales each case differently, and a circle that passes
+// through the pole cannot be fitted: those scan the sampled phases.
 func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) {
 	s := w.carr
-	n := len(e.circle)
 	scan := func() {
 		for j, l := range e.circle {
 			e.evalCase(w, first+j, Circle, l, f, nw)
 		}
 	}
-	if e.Cond.Drive == "delivered" || n < 8 {
+	if e.Cond.Drive == "delivered" || e.forceScan {
 		scan()
 		return
 	}
@@ -470,30 +499,84 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		return
 	}
 	scale, k := e.drive(w, 0)
-	visit := func(j int, i int) {
-		j = ((j % n) + n) % n
-		a := s.Alpha(e.circle[j])
-		e.evalPart(w, i, first+j, Circle, hNormal, a, scale, k, f)
-	}
+	// deep in a stopband α may have underflowed to a bounding disc round
+	// zero (alphaCircle): its worst is no load of the circle, so it is
+	// filed under a sampled phase rather than given an angle
+	disc := ca == 0
 	for i := range w.c.Elements {
 		if l := w.c.Elements[i].Line(); l != nil {
 			e.lineCircle(w, l, i, first, ca, ra, scale, k, f)
 			continue
 		}
 		for _, x := range [3][2]complex128{{s.V[0][i], s.V[1][i]}, {s.I[0][i], s.I[1][i]}, {s.L[0][i], s.L[1][i]}} {
-			j := e.worstPhase(s, x[0], x[1], ca, ra)
-			visit(j, i)
-			visit(j+1, i)
+			if x[1] == 0 {
+				continue // the load does not reach this quantity; other cases hold it
+			}
+			a, th := exactWorst(w.carr, e.C.Zout, x[0], x[1], ca, ra)
+			ci := e.circleIndex(w, first, th, disc)
+			e.evalPart(w, i, ci, Circle, hNormal, a, scale, k, f)
+			if ci >= e.NumCases() && w.acc[i].uses(ci) {
+				e.record(w, first, f, th)
+			}
 		}
 	}
 	for ni := range s.Node[0] {
-		j := e.worstPhase(s, s.Node[0][ni], s.Node[1][ni], ca, ra)
-		for _, jj := range []int{j, j + 1} {
-			jj = ((jj % n) + n) % n
-			a := s.Alpha(e.circle[jj])
-			e.evalNode(w, ni, first+jj, hNormal, a, scale, k, nw)
+		if s.Node[1][ni] == 0 {
+			continue
+		}
+		a, th := exactWorst(w.carr, e.C.Zout, s.Node[0][ni], s.Node[1][ni], ca, ra)
+		ci := e.circleIndex(w, first, th, disc)
+		e.evalNode(w, ni, ci, hNormal, a, scale, k, nw)
+		if ci >= e.NumCases() && nw.at == ci {
+			e.record(w, first, f, th)
 		}
 	}
+}
+
+// exactWorst returns the α on the circle (centre ca, radius ra) where
+// |x0 + α·x1| is largest, and the reflection angle θ of its load.
+func exactWorst(s *circuits.Split, z0, x0, x1, ca complex128, ra float64) (complex128, float64) {
+	m := x0 + ca*x1
+	u := complex(1, 0)
+	if r := m / x1; cmplx.Abs(r) > 0 {
+		u = r / complex(cmplx.Abs(r), 0)
+	}
+	alpha := ca + complex(ra, 0)*u
+	th := 0.0
+	if alpha != 0 {
+		th = circuits.ReflectionAngle(z0, -s.Voc/alpha-s.Zth)
+	}
+	return alpha, th
+}
+
+// circleIndex is the case index an exact worst at angle th is filed
+// under: when the workspace records (the nominal audit), the next exact
+// case, kept only if it becomes someone's worst; otherwise (tolerance
+// trials keep values only, or an underflowed disc) the nearest sampled
+// phase.
+func (e *Engine) circleIndex(w *workspace, first int, th float64, disc bool) int {
+	if w.record && !disc {
+		return e.NumCases() + len(w.extra)
+	}
+	n := len(e.circle)
+	return first + int(math.Round(th/(2*math.Pi)*float64(n)))%n
+}
+
+// record keeps the exact worst load at angle th as a case of its own.
+func (e *Engine) record(w *workspace, first int, f, th float64) {
+	fi := (first - 1) / e.perCarrier
+	w.extra = append(w.extra, Case{F: f, Kind: Circle, Load: circuits.LoadOnCircle(e.C.Zout, e.Cond.SWR, th),
+		Theta: th * 180 / math.Pi, OffBand: fi >= e.nBand, Exact: true})
+}
+
+// uses reports whether case ci is any of the part's worst cases.
+func (a *accum) uses(ci int) bool {
+	for q := 0; q < nQ; q++ {
+		if a.valCase[q] == ci || a.utilCase[q] == ci || a.kindCase[Circle][q] == ci {
+			return true
+		}
+	}
+	return false
 }
 
 // alphaCircle fits the circle traced by α over the SWR circle through three
@@ -537,31 +620,6 @@ func circleThrough(z1, z2, z3 complex128) (complex128, float64, bool) {
 		return 0, 0, false
 	}
 	return c, r, true
-}
-
-// worstPhase returns the sampled phase index at or just below the angle
-// where |x0 + α·x1| is largest on the α circle (centre ca, radius ra).
-func (e *Engine) worstPhase(s *circuits.Split, x0, x1, ca complex128, ra float64) int {
-	if x1 == 0 {
-		return 0
-	}
-	// |x0 + (ca + ra·u)·x1| is largest where ra·u·x1 points along x0 + ca·x1
-	m := x0 + ca*x1
-	var u complex128
-	if cmplx.Abs(m) == 0 {
-		u = 1
-	} else {
-		u = (m / x1) / complex(cmplx.Abs(m/x1), 0)
-	}
-	alpha := ca + complex(ra, 0)*u
-	if alpha == 0 {
-		return 0
-	}
-	z := -s.Voc/alpha - s.Zth
-	th := circuits.ReflectionAngle(e.C.Zout, z)
-	n := len(e.circle)
-	j := int(math.Floor(th / (2 * math.Pi) * float64(n)))
-	return j
 }
 
 // harmonicSums finds, per harmonic, part and quantity, the worst over the
@@ -656,6 +714,11 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 			if qi := qIndex(l.Quantity); qi >= 0 && l.Abs > 0 && l.Derated > 0 {
 				pl.derated[qi] = l.Derated
 				pl.absRatio[qi] = l.Abs / l.Derated
+				pl.advice[qi] = l.Advice
+				if qi == qTemp {
+					amb := e.Cond.Ambient
+					pl.absRatio[qi] = (l.Abs - amb) / math.Max(l.Derated-amb, 1e-9)
+				}
 			}
 		}
 		pl.copperR = rp.CopperR(f)
@@ -670,6 +733,30 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 		}
 	}
 	return out
+}
+
+// utilOf is a stress over its derated limit; for temperature it is the
+// rise over the allowed rise (derated tmax − ambient), not °C over °C.
+func (e *Engine) utilOf(qi int, v, derated float64) float64 {
+	if qi == qTemp {
+		amb := e.Cond.Ambient
+		if allowed := derated - amb; allowed > 0 {
+			return math.Max(v-amb, 0) / allowed
+		}
+		return math.Max(v, amb) / derated // no rise allowed: over at once
+	}
+	return v / derated
+}
+
+// stressAt is the stress whose utilisation is u: the inverse of utilOf.
+func (e *Engine) stressAt(q ratings.Quantity, u, derated float64) float64 {
+	if q == ratings.Temp {
+		amb := e.Cond.Ambient
+		if allowed := derated - amb; allowed > 0 {
+			return amb + u*allowed
+		}
+	}
+	return u * derated
 }
 
 func qIndex(q ratings.Quantity) int {

@@ -10,7 +10,7 @@ import (
 	"rfstress/ratings"
 )
 
-const coreLine = "core K1 od=16mm id=8mm h=6mm material=iron-mu10\n"
+const coreLine = "core K1 od=16mm id=8mm h=6mm material=iron mu=10\n"
 
 // the 7-pole 0.1 dB Chebyshev lowpass used by several checks, cutoff 9 MHz
 func testLowpass(extra string) string {
@@ -41,8 +41,10 @@ func TestWorstEqualsBruteForce(t *testing.T) {
 	}
 	n := len(fx.c.Elements)
 	worstV, worstI, worstP, worstB := make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
-	for i := 0; i < fx.eng.NumCases(); i++ {
-		cs := fx.eng.Case(i)
+	// every case, the exact worst loads of the SWR circle included: each
+	// case's load, solved in full, must reproduce the engine's figures
+	for i := 0; i < fx.eng.NumCases()+len(sec.Extra); i++ {
+		cs := sec.Case(i)
 		r := fullSolve(t, fx.c, cs.F, 100, cs.Load)
 		for k, ps := range r.Parts {
 			worstV[k] = math.Max(worstV[k], math.Sqrt2*cmplx.Abs(ps.V))
@@ -90,11 +92,11 @@ func TestHarmonicCircleWorst(t *testing.T) {
 	}
 	const p = 100.0
 	n := len(fx.c.Elements)
-	// carrier: every sampled phase plus matched
+	// carrier: every case, the exact worst loads of the circle included
 	carV := make([]float64, n)
 	carI2 := make([]float64, n)
-	for i := 0; i < fx.eng.NumCases(); i++ {
-		cs := fx.eng.Case(i)
+	for i := 0; i < fx.eng.NumCases()+len(sec.Extra); i++ {
+		cs := sec.Case(i)
 		r := fullSolve(t, fx.c, cs.F, p, cs.Load)
 		for k, ps := range r.Parts {
 			carV[k] = math.Max(carV[k], cmplx.Abs(ps.V))

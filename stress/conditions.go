@@ -10,27 +10,37 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"time"
 
 	"rfstress/circuits"
+	"rfstress/ratings"
 )
 
-// Mode is a transmit mode preset: the ratio of average to PEP power.
+// Mode is a transmit mode preset: the ratio of average to PEP power and,
+// for heating, how it keys: continuously, a single on-period (a tune-up
+// carrier held for a set time), or on for On seconds of every Period.
 type Mode struct {
 	Name     string
 	AvgRatio float64
 	Note     string
+	On       float64 // s; 0: continuous
+	Period   float64 // s; 0: a single on-period of On (or continuous)
 }
 
 // Modes are the presets. Voltage-type stress is taken at PEP, heating-type
 // stress at PEP × AvgRatio. Values are common practice, from memory, except
 // AM, which follows from the AM power relations.
 var Modes = []Mode{
-	{"carrier", 1.0, "key-down carrier: average equals PEP"},
-	{"data", 1.0, "constant-envelope data modes (FSK and the like): average equals PEP"},
-	{"fm", 1.0, "FM: constant envelope, average equals PEP"},
-	{"cw", 0.5, "CW keying: about half the time key-down (common practice, from memory)"},
-	{"am", 0.375, "AM with 100 % sine modulation: Pavg = Pc·(1+m²/2), PEP = Pc·(1+m)², ratio 3/8"},
-	{"ssb", 0.2, "SSB voice without heavy processing: average about 1/5 of PEP (common practice, from memory; 0.1 to 0.3)"},
+	{Name: "carrier", AvgRatio: 1.0, Note: "key-down carrier: average equals PEP"},
+	{Name: "data", AvgRatio: 1.0, Note: "constant-envelope data modes (FSK and the like) sent continuously: average equals PEP"},
+	{Name: "fm", AvgRatio: 1.0, Note: "FM: constant envelope, average equals PEP"},
+	{Name: "cw", AvgRatio: 0.5, Note: "CW keying: about half the time key-down (common practice, from memory)"},
+	{Name: "am", AvgRatio: 0.375, Note: "AM with 100 % sine modulation: Pavg = Pc·(1+m²/2), PEP = Pc·(1+m)², ratio 3/8"},
+	{Name: "ssb", AvgRatio: 0.2, Note: "SSB voice without heavy processing: average about 1/5 of PEP (common practice, from memory; 0.1 to 0.3)"},
+	{Name: "data-15s", AvgRatio: 0.5, On: 15, Period: 30,
+		Note: "constant-envelope data mode sending 15 s in every 30 s: average half of PEP, heating ripple of the 30 s cycle on top (common practice)"},
+	{Name: "tune", AvgRatio: 1, On: 30,
+		Note: "tune-up carrier held for 30 s, then off: average equals PEP, temperature after 30 s (common practice: a tune-up takes seconds, rarely over half a minute)"},
 }
 
 // ModeByName finds a preset.
@@ -115,6 +125,37 @@ type Conditions struct {
 	CarrierAlso []float64
 	Derate      string
 	Ambient     float64
+	// KeyDown is the time at the mode's average power before the
+	// temperature is judged, s: 0 not set (the mode's own on-period, else
+	// steady state), +Inf steady state asked for.
+	KeyDown float64
+	Duty    ratings.Duty // from the mode preset
+}
+
+// HeatTime is the key-down time the temperature is judged at (s; +Inf
+// for steady state): the one given, else a single-shot mode's on-period,
+// else steady state, the conservative default.
+func (c *Conditions) HeatTime() float64 {
+	switch {
+	case c.KeyDown > 0:
+		return c.KeyDown
+	case c.Duty.Period == 0 && c.Duty.On > 0:
+		return c.Duty.On
+	}
+	return math.Inf(1)
+}
+
+// ParseKeyDown reads a key-down time: a Go duration such as 90s, 5m or
+// 1h30m (m is minutes here), or "steady".
+func ParseKeyDown(v string) (float64, error) {
+	if strings.EqualFold(v, "steady") {
+		return math.Inf(1), nil
+	}
+	d, err := time.ParseDuration(v)
+	if err != nil || d <= 0 {
+		return 0, fmt.Errorf("bad key-down time %q", v)
+	}
+	return d.Seconds(), nil
 }
 
 // Defaults are the conditions before the file and the command line speak.
@@ -224,6 +265,13 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 			return settingError(s, "one of "+modeNames(), "unknown mode %q", v)
 		}
 		c.Mode, c.AvgRatio = m.Name, m.AvgRatio
+		c.Duty = ratings.Duty{On: m.On, Period: m.Period}
+	case "key-down":
+		t, err := ParseKeyDown(v)
+		if err != nil {
+			return settingError(s, "a time such as 90s, 5m or 1h30m, or steady", "%v", err)
+		}
+		c.KeyDown = t
 	case "avg-ratio":
 		x, err := num()
 		if err != nil {
@@ -232,7 +280,7 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 		if !(x > 0 && x <= 1) {
 			return settingError(s, "0 < ratio ≤ 1", "average-to-PEP ratio out of range")
 		}
-		c.AvgRatio, c.Mode = x, "custom"
+		c.AvgRatio, c.Mode, c.Duty = x, "custom", ratings.Duty{}
 	case "drive":
 		d := strings.ToLower(v)
 		if d != "available" && d != "delivered" {

@@ -32,7 +32,12 @@ import (
 // form of a quadratic form on a circle (lineDiss).
 
 // allQ marks every quantity.
-var allQ = [nQ]bool{true, true, true, true, true, true, true, true}
+var allQ = func() (m [nQ]bool) {
+	for i := range m {
+		m[i] = true
+	}
+	return
+}()
 
 // lineQ computes a line's quantities for the weight circle (c, r) at the
 // carrier (r = 0: one load, α = c). It returns where the voltage and the

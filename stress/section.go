@@ -1,6 +1,7 @@
 package stress
 
 import (
+	"fmt"
 	"math"
 	"sort"
 
@@ -12,6 +13,7 @@ import (
 // result.
 func (e *Engine) Audit() (*Section, error) {
 	w := e.newWorkspace(e.C)
+	w.record = true
 	nw, err := e.run(w)
 	if err != nil {
 		return nil, err
@@ -19,7 +21,7 @@ func (e *Engine) Audit() (*Section, error) {
 	acc := w.acc
 	nl := e.C.NL
 	s := &Section{File: nl.File, Title: nl.Title, SHA256: nl.SHA256(), Netlist: nl, Conditions: e.Cond,
-		Engine: e, NumCases: e.NumCases(), MaxNodeVpk: nw.vpk, MaxNodeCase: nw.at, SafeW: math.Inf(1)}
+		Engine: e, NumCases: e.NumCases(), Extra: w.extra, MaxNodeVpk: nw.vpk, MaxNodeCase: nw.at, SafeW: math.Inf(1)}
 	if len(e.C.Nodes) > 0 {
 		s.MaxNodeAt = e.C.Nodes[nw.node]
 	}
@@ -28,7 +30,7 @@ func (e *Engine) Audit() (*Section, error) {
 		s.Profile = e.R.Profile
 	}
 	for i, el := range e.C.Elements {
-		s.Parts = append(s.Parts, e.judge(el, e.rparts[i], &acc[i]))
+		s.Parts = append(s.Parts, e.judge(s, el, e.rparts[i], &acc[i]))
 	}
 	for _, p := range s.Parts {
 		if p.Verdict > s.Verdict && !(p.Verdict == ratings.Unrated && e.AllowUnrated) {
@@ -43,7 +45,7 @@ func (e *Engine) Audit() (*Section, error) {
 
 // judge turns one part's accumulated worst values into stresses, verdicts,
 // safe power and ratings to buy.
-func (e *Engine) judge(el circuits.Element, rp *ratings.Part, a *accum) *PartResult {
+func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *accum) *PartResult {
 	p := &PartResult{Name: el.Name, Kind: el.Kind, Value: el.Value, Stress: map[ratings.Quantity]*Stress{}, SafeW: math.Inf(1), Rating: rp}
 	if rp != nil {
 		p.Findings = rp.Findings
@@ -63,7 +65,12 @@ func (e *Engine) judge(el circuits.Element, rp *ratings.Part, a *accum) *PartRes
 		}
 		p.ByKind = append(p.ByKind, kw)
 	}
-	pep := e.Cond.PowerW
+	if a.has[qTemp] && rp != nil {
+		// steady state under the same duty, and the state judged
+		p.Heat = &Heat{Pavg: a.pavg, Tau: a.heat.Tau, KeyDown: e.heatT,
+			Steady: e.Cond.Ambient + rp.Heating(a.pavg, math.Inf(1), e.Cond.Duty).Rise,
+			Judged: e.Cond.Ambient + a.heat.Rise}
+	}
 	for qi, q := range Quantities {
 		if !a.has[qi] {
 			continue
@@ -73,20 +80,20 @@ func (e *Engine) judge(el circuits.Element, rp *ratings.Part, a *accum) *PartRes
 		if rp == nil {
 			continue
 		}
-		lim, ok := limitFor(rp, q, e.Case(st.UtilCase).F)
+		lim, ok := limitFor(rp, q, s.Case(st.UtilCase).F)
 		if !ok {
 			continue // nobody rates this quantity for this kind: shown, not judged
 		}
 		if lim.Abs <= 0 {
 			// unrated: judge at the largest value, at that case's frequency
-			lim, _ = limitFor(rp, q, e.Case(st.Case).F)
+			lim, _ = limitFor(rp, q, s.Case(st.Case).F)
 			st.Limit = lim
 			st.Verdict = ratings.Judge(st.Value, lim)
 		} else {
 			st.Limit = lim
-			at := st.Util * lim.Derated
+			at := e.stressAt(q, st.Util, lim.Derated)
 			st.Verdict = ratings.Judge(at, lim)
-			st.SafeW = safePower(q, pep, st.Util, e.Cond.Ambient, at, lim.Derated)
+			st.SafeW = e.safePower(rp, qi, st.Util, a.pavg)
 		}
 		if st.Verdict != ratings.OK {
 			factor := st.Limit.Factor
@@ -94,17 +101,27 @@ func (e *Engine) judge(el circuits.Element, rp *ratings.Part, a *accum) *PartRes
 				factor = 1
 			}
 			st.Buy, st.BuyText = ratings.BuyRating(q, st.Value, factor)
-			if q == ratings.Bpk || q == ratings.Temp || q == ratings.Jrms {
-				// concrete figures: core size, cooling surface, wire diameter
-				f := e.Case(st.Case).F
-				lim, _ := limitFor(rp, q, f)
-				if r := rp.Remedy(lim, st.Value, f, e.Cond.Ambient); r != "" {
+			if q == ratings.Bpk || q == ratings.Bavg || q == ratings.Temp || q == ratings.Jrms {
+				// physical figures: core size, cooling surface, wire diameter
+				c := s.Case(st.Case)
+				lim, _ := limitFor(rp, q, c.F)
+				ctx := ratings.RemedyContext{F: c.F, Ambient: e.Cond.Ambient, Irms: a.val[qIrms],
+					Pavg: a.pavg, KeyDown: e.heatT, Duty: e.Cond.Duty}
+				if r := rp.Remedy(lim, st.Value, ctx); r != "" {
 					st.BuyText = r
 				}
+			}
+			if q == ratings.Bavg {
+				p.Findings = append(append([]ratings.Finding(nil), p.Findings...), ratings.Finding{Part: p.Name, Pos: rp.Pos, Severity: "note",
+					Text: fmt.Sprintf("flux at average power %s is above the heating guide %s: advice, not a rating. The Q measured at small signal understates the core loss at this flux; run at low power for a while and check that the winding is only warm",
+						circuits.FormatSI(st.Value, "T"), circuits.FormatSI(lim.Derated, "T"))})
 			}
 		}
 		if st.Verdict > p.Verdict {
 			p.Verdict = st.Verdict
+		}
+		if st.Limit.Advice {
+			continue // a guide never sets the part's use or its safe power
 		}
 		if st.Util > p.Util {
 			p.Util = st.Util
@@ -113,7 +130,33 @@ func (e *Engine) judge(el circuits.Element, rp *ratings.Part, a *accum) *PartRes
 			p.SafeW, p.Limiting = st.SafeW, q
 		}
 	}
+	p.Binding = p.Limiting
+	if p.Binding == "" {
+		p.Binding = bindingRating(p)
+	}
 	return p
+}
+
+// bindingRating is the rated quantity nearest its limit when none limits
+// the safe power.
+func bindingRating(p *PartResult) ratings.Quantity {
+	var best ratings.Quantity
+	u := 0.0
+	for _, q := range Quantities {
+		if st, ok := p.Stress[q]; ok && !st.Limit.Advice && st.Limit.Abs > 0 && st.Util > u {
+			best, u = q, st.Util
+		}
+	}
+	return best
+}
+
+// Heat is a wound part's thermal figures at its hottest case.
+type Heat struct {
+	Pavg    float64 // average dissipation, W
+	Tau     float64 // thermal time constant, s (0: no heat capacity known)
+	KeyDown float64 // key-down time judged, s (+Inf steady)
+	Steady  float64 // steady-state temperature, °C
+	Judged  float64 // temperature after KeyDown, °C (the one judged)
 }
 
 func limitFor(rp *ratings.Part, q ratings.Quantity, f float64) (ratings.Limit, bool) {
@@ -125,25 +168,45 @@ func limitFor(rp *ratings.Part, q ratings.Quantity, f float64) (ratings.Limit, b
 	return ratings.Limit{}, false
 }
 
-// safePower is the PEP at which a quantity reaches its derated limit. The
-// network is linear: voltages, currents and flux grow with √P, dissipation
-// with P, and temperature rise with P^0.833 by the estimate used.
-func safePower(q ratings.Quantity, pep, util, ambient, temp, tlim float64) float64 {
+// safePower is the PEP at which quantity qi of a part reaches its derated
+// limit, for utilisation util at the audited PEP. The network is linear:
+// voltages, currents and flux grow with √P, dissipation with P; the
+// temperature rise follows the thermal model (Part.Heating) of the
+// dissipation, which grows with P, so a bisection finds it.
+func (e *Engine) safePower(rp *ratings.Part, qi int, util, pavg float64) float64 {
+	pep := e.Cond.PowerW
 	if util <= 0 {
 		return math.Inf(1)
 	}
-	switch q {
-	case ratings.Pdiss, ratings.Pm:
+	switch qi {
+	case qPdiss, qPm:
 		return pep / util
-	case ratings.Temp:
-		rise, allowed := temp-ambient, tlim-ambient
-		if allowed <= 0 {
-			return 0
+	case qTemp:
+		if rp == nil || !(pavg > 0) {
+			return math.Inf(1)
 		}
+		rise := rp.Heating(pavg, e.heatT, e.Cond.Duty).Rise
 		if rise <= 0 {
 			return math.Inf(1)
 		}
-		return pep * math.Pow(allowed/rise, 1/ratings.TempExponent)
+		allowed := rise / util
+		// rise(s·pavg) = allowed; the rise grows with s
+		lo, hi := 0.0, 1.0
+		for rp.Heating(hi*pavg, e.heatT, e.Cond.Duty).Rise < allowed {
+			lo, hi = hi, hi*2
+			if hi > 1e12 {
+				return math.Inf(1)
+			}
+		}
+		for n := 0; n < 200 && hi-lo > 1e-13*hi; n++ {
+			mid := (lo + hi) / 2
+			if rp.Heating(mid*pavg, e.heatT, e.Cond.Duty).Rise < allowed {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+		return pep * lo
 	}
 	return pep / (util * util)
 }
@@ -282,10 +345,18 @@ type Section struct {
 	Harmonics []HarmonicLine
 	Profile   *ratings.Profile
 	Tolerance *Tolerance
+	// Extra are the exact worst loads found on the SWR circle, cases
+	// NumCases … NumCases+len(Extra)−1.
+	Extra []Case
 }
 
 // Case returns case i of the section.
-func (s *Section) Case(i int) Case { return s.Engine.Case(i) }
+func (s *Section) Case(i int) Case {
+	if n := s.Engine.NumCases(); i >= n && i-n < len(s.Extra) {
+		return s.Extra[i-n]
+	}
+	return s.Engine.Case(i)
+}
 
 // Has reports whether the part has a stress of quantity q.
 func (p *PartResult) Has(q ratings.Quantity) bool { _, ok := p.Stress[q]; return ok }

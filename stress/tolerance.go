@@ -212,10 +212,10 @@ func (e *Engine) trialSafe(w *workspace) float64 {
 		a := &w.acc[i]
 		for q := 0; q < nQ; q++ {
 			d := w.lim[i].derated[q]
-			if d <= 0 || a.util[q] <= 0 {
+			if d <= 0 || a.util[q] <= 0 || w.lim[i].advice[q] {
 				continue
 			}
-			p := safePower(Quantities[q], e.Cond.PowerW, a.util[q], e.Cond.Ambient, a.util[q]*d, d)
+			p := e.safePower(e.rparts[i], q, a.util[q], a.pavg)
 			if p < best {
 				best = p
 			}

@@ -22,7 +22,8 @@ func init() {
 // a file's `audit` lines and the command line share one reader.
 var conditionFlags = []struct{ name, def, help string }{
 	{"power", "", "PEP in `watts` (default 100)"},
-	{"mode", "", "transmit `mode`: carrier, data, fm, cw, am or ssb; sets the average-to-PEP ratio (default carrier)"},
+	{"mode", "", "transmit `mode`: carrier, data, fm, cw, am, ssb, data-15s (15 s of every 30 s) or tune (30 s carrier); sets the average-to-PEP ratio and the keying (default carrier)"},
+	{"key-down", "", "time at the mode's average power before the core temperature is judged: a `duration` such as 90s, 5m or 1h30m, or steady (default steady state, or the mode's own on-period)"},
 	{"avg-ratio", "", "average-to-PEP power `ratio`, 0 < r ≤ 1 (overrides --mode)"},
 	{"drive", "", "drive `type`: available (power is the source's available power) or delivered (network absorbs it)"},
 	{"harmonics", "", "harmonic `levels`: none, push-pull, single-ended, square, or dBc for 2nd,3rd,… e.g. -30,-12,-40 (default push-pull)"},
