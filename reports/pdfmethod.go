@@ -24,9 +24,10 @@ func (p *pdfw) method() {
 		"Combination over carrier and harmonics: peak values add as if every harmonic peaked at the same instant (the worst phase), RMS values add as the root of the sum of squares, dissipations add.",
 		"The antenna port sees the matched load; every load on the SWR circle, described by Γ = (Z − Z0)/(Z + Z0*), the power-wave reflection coefficient taken with reference Z0* so that it vanishes at the antenna's own impedance; any explicit loads; and, when asked, the antenna open and shorted. On the circle, each part's worst phase is found on the continuous circle, not only at the sampled phases.",
 		"At harmonics the load is unknown, so each harmonic is taken at its own worst load over the continuous SWR circle, independently of the carrier and of the other harmonics: a safe upper bound.",
-		"Voltage-type stress (peak and RMS voltage, peak flux density) is taken at PEP. Heating-type stress (RMS current, dissipation, temperature, current density) is taken at the average power: PEP times the mode's average-to-PEP ratio.",
-		"Flux density is the winding's flux linkage over turns and effective core area (the transformer EMF equation), with toroid area and path length from the core dimensions. Core temperature is ambient plus a still-air rise estimated from dissipation and wound surface, ΔT ≈ (P[mW]/A[cm²])^0.833 (common practice).",
-		"A stress up to the derated limit (rating × derating factor) is ok, up to the rating marginal, past the rating a failure; a stressed quantity that has no rating is unrated. The safe power is the PEP at which the first rated quantity meets its derated limit: voltages, currents and flux grow with √P, dissipation with P, temperature rise with P^0.833. Ratings to buy are rounded up to common series (capacitor working voltages, the R10 preferred numbers for currents, usual resistor wattages).",
+		"Voltage-type stress (peak and RMS voltage, peak flux density) is taken at PEP. Heating-type stress (RMS current, dissipation, temperature, current density, the flux judged against the heating guide) is taken at the average power: PEP times the mode's average-to-PEP ratio.",
+		"Flux density is the winding's flux linkage over turns and effective core area (the transformer EMF equation), with toroid area and path length from the core dimensions. A core has three limits, judged apart: saturation (peak flux at PEP against the material's saturation flux density; a rating), a heating guide (the flux at average power against B₁·√(1 MHz/f), our formulation from core loss per cycle growing as B², one anchor B₁ per material class, or the material's own points; advice, at most marginal), and temperature (a rating).",
+		"Core temperature is ambient plus a still-air rise from the average dissipation and wound surface, ΔT ≈ (P[mW]/A[cm²])^0.833 (common practice), reached in time as a first-order system: ΔT(t) = ΔT_final·(1 − e^(−t/τ)), τ = R_th·C_th, the heat capacity from the core's and the winding's mass (densities and specific heats from memory). The default is steady state; a key-down time or a keyed mode (on for a set part of a period) changes it. Its use is rise over allowed rise.",
+		"A stress up to the derated limit (rating × derating factor) is ok, up to the rating marginal, past the rating a failure; a stressed quantity that has no rating is unrated. The safe power is the PEP at which the first rated quantity meets its derated limit: voltages, currents and flux grow with √P, dissipation with P, temperature rise through the thermal model; the heating guide never sets it. Ratings to buy are rounded up to common series (capacitor working voltages, the R10 preferred numbers for currents, usual resistor wattages).",
 	)
 	p.profiles()
 	p.bullets("Published sources used",
@@ -44,7 +45,7 @@ func (p *pdfw) method() {
 	p.bullets("What the estimate does not cover",
 		"Arcing across board gaps, switch and relay contacts (including switching while transmitting), and corona.",
 		"Self-resonance and parasitic inductance and capacitance of parts and wiring, unless they are modelled in the netlist.",
-		"Drift of part values with temperature and voltage; thermal time constants (every temperature here is a steady state).",
+		"Drift of part values with temperature and voltage; heat flowing between parts, and core loss beyond what the Q figures say (hence the heating guide).",
 		"Intermodulation and any non-linear part; RF exposure and specific absorption rate (SAR) near antennas; mains and high-voltage supplies.",
 	)
 	p.f.Ln(2)

@@ -275,8 +275,12 @@ func stressDetail(s *stress.Section, st *stress.Stress) string {
 		}
 		return b.String()
 	}
-	fmt.Fprintf(&b, " · rating %s (%s), derated %s", FormatQ(q, lim.Abs), lim.Basis, FormatQ(q, lim.Derated))
-	fmt.Fprintf(&b, " · %s of the derated limit", pct(st.Util))
+	if lim.Advice {
+		fmt.Fprintf(&b, " · guide %s (%s) · %s of the guide", FormatQ(q, lim.Abs), lim.Basis, pct(st.Util))
+	} else {
+		fmt.Fprintf(&b, " · rating %s (%s), derated %s", FormatQ(q, lim.Abs), lim.Basis, FormatQ(q, lim.Derated))
+		fmt.Fprintf(&b, " · %s of the derated limit", pct(st.Util))
+	}
 	if st.UtilCase != st.Case {
 		if c := caseText(s, st.UtilCase); c != "" {
 			b.WriteString(" at " + c)
@@ -389,6 +393,7 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	p.para(8, intro)
 	p.f.Ln(1)
 	p.partTable(s)
+	p.coreTable(s)
 	safe := "Safe power for this netlist: " + FormatPower(s.SafeW)
 	if !math.IsInf(s.SafeW, 1) {
 		safe += ", set by the " + QuantityLabel(s.LimitQ) + " of " + s.LimitPart
@@ -399,4 +404,46 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	p.multi(bodyW, 4.4, safe)
 	p.findings(s)
 	p.tolerance(s)
+}
+
+// coreTable shows each cored part's three core limits apart: saturation
+// and temperature are ratings, the heating guide is advice, and the last
+// column names the rating that binds.
+func (p *pdfw) coreTable(s *stress.Section) {
+	var rows []trow
+	for _, pr := range s.Parts {
+		if !pr.Has(ratings.Bpk) && !pr.Has(ratings.Temp) {
+			continue
+		}
+		r := trow{cells: []tcell{{s: pr.Name, bold: true}}}
+		for _, q := range []ratings.Quantity{ratings.Bpk, ratings.Bavg, ratings.Temp} {
+			st, ok := pr.Stress[q]
+			if !ok || st.Limit.Quantity == "" {
+				r.cells = append(r.cells, tcell{s: "—", muted: true}, tcell{s: "", muted: true})
+				continue
+			}
+			v := FormatQ(q, st.Value)
+			if st.Limit.Abs > 0 {
+				v += " / " + FormatQ(q, st.Limit.Derated)
+			}
+			use := pct(st.Util)
+			if st.Limit.Advice && st.Verdict != ratings.OK {
+				use += " advice"
+			}
+			r.cells = append(r.cells, tc(v), tc(use))
+		}
+		r.cells = append(r.cells, tc(HeatTimeText(pr.Heat)), tc(CoreBinding(pr)))
+		rows = append(rows, r)
+	}
+	if len(rows) == 0 {
+		return
+	}
+	intro := "Core limits, each judged apart. Saturation: peak flux at PEP against the material's saturation flux density (a rating). " +
+		"Heating guide: flux at average power against the guide (advice: at most marginal, never a failure). " +
+		"Temperature: ambient plus the rise from the average dissipation, judged as rise over allowed rise (a rating); τ is the thermal time constant."
+	p.sub("Core limits", p.paraHeight(8, intro)+20)
+	p.para(8, intro)
+	p.f.Ln(1)
+	titles := []string{"part", "saturation (PEP)", "use", "heating guide (avg.)", "use", "temperature", "use", "τ, judged", "binds"}
+	p.table(widths(titles, []float64{9, 20, 8, 20, 13, 18, 8, 17, 26}, "LRRRRRRLL"), rows, 7.5)
 }
