@@ -144,7 +144,7 @@ capacitor C3  out1 gnd 390p vpk=500
 audit power=100 freq=7.1M
 `)},
 	{"xfmr.net", []byte(`title transformer
-core ring20 od=20mm id=10mm h=8mm material=iron-mu10
+core ring20 od=20mm id=10mm h=8mm material=iron mu=10
 port in  p z=50
 port out s z=12.5
 inductor Lp p gnd 20u q=120 core=ring20 turns=10

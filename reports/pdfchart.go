@@ -57,8 +57,8 @@ func (p *pdfw) marginChart() {
 		for _, pr := range s.Parts {
 			for _, q := range stress.Quantities {
 				st, ok := pr.Stress[q]
-				if !ok || st.Limit.Quantity == "" {
-					continue
+				if !ok || st.Limit.Quantity == "" || st.Limit.Advice {
+					continue // the heating guide is advice: shown in the core table
 				}
 				if st.Limit.Abs > 0 {
 					bars = append(bars, bar{pr.Name, st})
