@@ -248,7 +248,7 @@ func writeSectionText(w io.Writer, s *stress.Section, width int) {
 		t.row(cells...)
 	}
 	t.write(w)
-	writeCoresText(w, s)
+	writeCoresText(w, s, width)
 	if up := s.Upgrades(); len(up) > 0 {
 		fmt.Fprintln(w, "\n   to change:")
 		for _, u := range up {
@@ -349,42 +349,37 @@ func pct1(v float64) string {
 	return strconv.FormatFloat(100*v, 'f', 1, 64) + " %"
 }
 
-// writeCoresText shows each cored part's three core limits side by side:
-// saturation and temperature are ratings, the heating guide is advice,
-// and the last column names the rating that binds.
-func writeCoresText(w io.Writer, s *stress.Section) {
-	t := newTable("core", "saturation (PEP)", "use", "heating guide (avg.)", "use", "temperature", "rise use", "τ", "binds")
+// writeCoresText shows each cored part's three core limits side by side,
+// each as its worst value and use: saturation and temperature are
+// ratings, the heating guide is advice; the last column names the rating
+// that binds. It fits width columns (0: no limit).
+func writeCoresText(w io.Writer, s *stress.Section, width int) {
+	t := newTable("core", "saturation", "heating guide", "temperature", "τ, judged", "binds")
+	t.sub = []string{"", "PEP", "avg., advice", "rise use", "", ""}
 	t.leftCols = 1
-	rows := 0
+	t.leftLast = true
+	t.maxWidth = width
 	for _, p := range s.Parts {
 		if !p.Has(ratings.Bpk) && !p.Has(ratings.Temp) {
 			continue
 		}
-		rows++
 		cells := []string{p.Name}
 		for _, q := range []ratings.Quantity{ratings.Bpk, ratings.Bavg, ratings.Temp} {
 			st, ok := p.Stress[q]
 			if !ok || st.Limit.Quantity == "" {
-				cells = append(cells, "—", "")
+				cells = append(cells, "—")
 				continue
 			}
-			v := FormatQ(q, st.Value)
-			if st.Limit.Abs > 0 {
-				v += " / " + FormatQ(q, st.Limit.Derated)
-			}
-			use := pct(st.Util) + " " + st.Verdict.String()
-			if st.Limit.Advice && st.Verdict != ratings.OK {
-				use = pct(st.Util) + " advice"
-			}
-			cells = append(cells, v, use)
+			cells = append(cells, FormatQ(q, st.Value)+" "+pct(st.Util))
 		}
-		cells = append(cells, HeatTimeText(p.Heat), CoreBinding(p))
+		cells = append(cells, HeatTimeText(p.Heat), coreBindingWord(p))
 		t.row(cells...)
 	}
-	if rows == 0 {
+	if len(t.rows) == 0 {
 		return
 	}
-	fmt.Fprintln(w, "\n   core limits: saturation and temperature are ratings, the heating guide is advice (never a fail)")
+	fmt.Fprintln(w)
+	wrapLine(w, width, "   ", "   ", "core limits: saturation and temperature are ratings; the heating guide is advice, never a fail")
 	t.write(w)
 }
 
@@ -417,9 +412,8 @@ func DurationText(sec float64) string {
 	return num(sec/3600, 1) + " h"
 }
 
-// CoreBinding names which of a part's core limits binds: the rating with
-// the highest use, with a note when the guide is exceeded.
-func CoreBinding(p *stress.PartResult) string {
+// coreBindingWord names the core rating with the highest use.
+func coreBindingWord(p *stress.PartResult) string {
 	var best ratings.Quantity
 	u := -1.0
 	for _, q := range []ratings.Quantity{ratings.Bpk, ratings.Temp} {
@@ -427,13 +421,19 @@ func CoreBinding(p *stress.PartResult) string {
 			best, u = q, st.Util
 		}
 	}
-	out := "no core rating"
 	switch best {
 	case ratings.Bpk:
-		out = "saturation"
+		return "saturation"
 	case ratings.Temp:
-		out = "temperature"
+		return "temperature"
 	}
+	return "no core rating"
+}
+
+// CoreBinding names which of a part's core limits binds: the rating with
+// the highest use, with a note when the guide is exceeded.
+func CoreBinding(p *stress.PartResult) string {
+	out := coreBindingWord(p)
 	if st, ok := p.Stress[ratings.Bavg]; ok && st.Verdict != ratings.OK {
 		out += " (guide exceeded: advice)"
 	}
