@@ -54,7 +54,7 @@ var inductorAttrs = map[string]AttrSpec{
 	"q":     {Type: TPoints, Help: "Q, or Q@frequency points such as 90@3.5M,180@10M"},
 	"core":  {Type: TWord, Help: "the name of a core statement"},
 	"turns": {Type: TInt, Help: "number of turns, a whole number"},
-	"wire":  {Type: TPositive, Units: lengthUnit, NeedUnit: true, Help: "wire diameter with a unit, e.g. 0.8mm"},
+	"wire":  {Type: TPositive, Units: lengthUnit, NeedUnit: true, Gauge: true, Help: "wire diameter with a unit, e.g. 0.8mm, or a gauge, e.g. 18awg"},
 	"irms":  {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A"},
 	"tol":   {Type: TPercent, Help: "value tolerance such as 5%"},
 	"qtol":  {Type: TPercent, Help: "Q tolerance such as 20%"},

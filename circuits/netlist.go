@@ -599,6 +599,11 @@ func attrList(kw string, spec Keyword) string {
 }
 
 func readNumber(s string, as AttrSpec) (float64, error) {
+	if as.Gauge {
+		if n, ok := parseAWG(s); ok {
+			return AWGDiameter(n), nil
+		}
+	}
 	if as.NeedUnit {
 		_, rest := splitNumber(s)
 		if rest == "" {

@@ -35,7 +35,9 @@ type AttrSpec struct {
 	// NeedUnit makes a bare number an error; used for lengths and areas,
 	// where a bare number is almost always a unit slip (mm taken as m).
 	NeedUnit bool
-	Help     string // shown in "expected …" messages
+	// Gauge lets a wire diameter be written as an AWG number ("18awg").
+	Gauge bool
+	Help  string // shown in "expected …" messages
 }
 
 // Keyword describes one statement of the netlist language.

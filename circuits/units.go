@@ -42,13 +42,13 @@ func ParseValue(s string, want ...string) (float64, error) {
 	// mm2 is an area: read it before the prefix rule takes "m" as milli.
 	if rest == "cm2" || rest == "cm²" {
 		if !unitAllowed("mm2", want) {
-			return 0, fmt.Errorf("unit cm2 does not fit here (%s)", wantText(want))
+			return 0, unitMismatch("cm2", want)
 		}
 		return v * 1e-4, nil
 	}
 	if rest == "mm2" || rest == "mm²" {
 		if !unitAllowed("mm2", want) {
-			return 0, fmt.Errorf("unit mm2 does not fit here (%s)", wantText(want))
+			return 0, unitMismatch("mm2", want)
 		}
 		return v * 1e-6, nil
 	}
@@ -66,7 +66,7 @@ func ParseValue(s string, want ...string) (float64, error) {
 				break // "m" alone is milli unless metres are asked for
 			}
 			if !unitAllowed(u, want) {
-				return 0, fmt.Errorf("unit %s does not fit here (%s)", u, wantText(want))
+				return 0, unitMismatch(u, want)
 			}
 			if u == "%" {
 				return v / 100, nil
@@ -77,6 +77,9 @@ func ParseValue(s string, want ...string) (float64, error) {
 	r, size := utf8.DecodeRuneInString(rest)
 	_ = r
 	pre := rest[:size]
+	if strings.HasPrefix(strings.ToUpper(rest), "MEG") {
+		return 0, fmt.Errorf("%q: MEG is the SPICE spelling of mega; here write M for mega (m is milli), e.g. %sM", s, num)
+	}
 	f, ok := prefixes[pre]
 	if !ok {
 		return 0, fmt.Errorf("%q has an unknown prefix or unit %q (SI prefixes f p n u µ m k M G, then a unit)", s, rest)
@@ -91,12 +94,45 @@ func ParseValue(s string, want ...string) (float64, error) {
 	for _, u := range units {
 		if unit == u && u != "%" && u != "mm2" {
 			if !unitAllowed(u, want) {
-				return 0, fmt.Errorf("unit %s does not fit here (%s)", u, wantText(want))
+				return 0, unitMismatch(u, want)
 			}
 			return v * f, nil
 		}
 	}
+	// a known unit in the wrong case: "Mhz", "mhz", "KHZ"
+	for _, u := range units {
+		if len(u) > 1 && strings.EqualFold(unit, u) {
+			hint := "units are case-sensitive: write " + u
+			if pre == "m" && u == "Hz" {
+				hint = "m is milli: for megahertz write " + num + "MHz (units are case-sensitive)"
+			} else {
+				hint += ", e.g. " + num + pre + u
+			}
+			return 0, fmt.Errorf("%q has an unknown unit %q (%s)", s, unit, hint)
+		}
+	}
 	return 0, fmt.Errorf("%q has an unknown unit %q (expected %s)", s, unit, wantText(want))
+}
+
+// unitQuantity names what each unit measures, for messages.
+var unitQuantity = map[string]string{
+	"F": "a capacitance", "H": "an inductance", "ohm": "a resistance", "Ohm": "a resistance", "Ω": "a resistance",
+	"Hz": "a frequency", "V": "a voltage", "A": "a current", "W": "a power", "m": "a length", "T": "a flux density",
+	"mm2": "an area", "cm2": "an area", "%": "a share", "C": "a temperature", "°C": "a temperature",
+}
+
+// unitMismatch says which quantity was written and which the field takes:
+// "1uH" on a capacitor is an inductance where a capacitance belongs.
+func unitMismatch(u string, want []string) error {
+	got, ok1 := unitQuantity[u]
+	need, ok2 := "", false
+	if len(want) == 1 {
+		need, ok2 = unitQuantity[want[0]]
+	}
+	if ok1 && ok2 && got != need {
+		return fmt.Errorf("unit %s (%s) does not fit here (%s, %s)", u, got, wantText(want), need)
+	}
+	return fmt.Errorf("unit %s does not fit here (%s)", u, wantText(want))
 }
 
 func unitAllowed(u string, want []string) bool {
@@ -278,4 +314,38 @@ func FormatHz(f float64) string {
 	}
 	x, _ := strconv.ParseFloat(strconv.FormatFloat(f/p, 'g', 6, 64), 64)
 	return strconv.FormatFloat(x, 'f', -1, 64) + " " + unit
+}
+
+// AWGDiameter is the diameter in metres of American Wire Gauge n (0000 is
+// -3, 000 is -2, 00 is -1), by the rule that defines the gauge in ASTM
+// B258: d = 0.005 in · 92^((36 − n)/39).
+func AWGDiameter(n int) float64 {
+	return 0.005 * 25.4e-3 * math.Pow(92, float64(36-n)/39)
+}
+
+// parseAWG reads a wire gauge written as "18awg", "AWG18" or "4/0awg".
+func parseAWG(s string) (int, bool) {
+	l := strings.ToLower(s)
+	var g string
+	switch {
+	case strings.HasSuffix(l, "awg"):
+		g = strings.TrimSpace(strings.TrimSuffix(l, "awg"))
+	case strings.HasPrefix(l, "awg"):
+		g = strings.TrimSpace(strings.TrimPrefix(l, "awg"))
+	default:
+		return 0, false
+	}
+	switch g {
+	case "0000", "4/0":
+		return -3, true
+	case "000", "3/0":
+		return -2, true
+	case "00", "2/0":
+		return -1, true
+	}
+	n, err := strconv.Atoi(g)
+	if err != nil || n < 0 || n > 46 {
+		return 0, false
+	}
+	return n, true
 }

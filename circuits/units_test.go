@@ -90,14 +90,19 @@ func TestParseValueErrors(t *testing.T) {
 		{"1e999", nil, `"1e999" is not a finite number`},
 		{"1.2.3", nil, `"1.2.3" is not a finite number`},
 		{"100x", nil, `"100x" has an unknown prefix or unit "x" (SI prefixes f p n u µ m k M G, then a unit)`},
-		{"3T", []string{"F"}, "unit T does not fit here (unit F)"},
-		{"10pH", []string{"F"}, "unit H does not fit here (unit F)"},
-		{"4.7uF", []string{"H"}, "unit F does not fit here (unit H)"},
-		{"1kHz", []string{"ohm"}, "unit Hz does not fit here (unit ohm)"},
-		{"5%", []string{"F"}, "unit % does not fit here (unit F)"},
-		{"15mm2", []string{"m"}, "unit mm2 does not fit here (unit m)"},
-		{"9cm2", []string{"H"}, "unit cm2 does not fit here (unit H)"},
+		{"3T", []string{"F"}, "unit T (a flux density) does not fit here (unit F, a capacitance)"},
+		{"10pH", []string{"F"}, "unit H (an inductance) does not fit here (unit F, a capacitance)"},
+		{"4.7uF", []string{"H"}, "unit F (a capacitance) does not fit here (unit H, an inductance)"},
+		{"1kHz", []string{"ohm"}, "unit Hz (a frequency) does not fit here (unit ohm, a resistance)"},
+		{"5%", []string{"F"}, "unit % (a share) does not fit here (unit F, a capacitance)"},
+		{"15mm2", []string{"m"}, "unit mm2 (an area) does not fit here (unit m, a length)"},
+		{"9cm2", []string{"H"}, "unit cm2 (an area) does not fit here (unit H, an inductance)"},
 		{"1cm", []string{"F"}, `"1cm" has an unknown prefix or unit "cm" (SI prefixes f p n u µ m k M G, then a unit)`},
+		{"10MEG", nil, `"10MEG": MEG is the SPICE spelling of mega; here write M for mega (m is milli), e.g. 10M`},
+		{"1meg", []string{"ohm"}, `"1meg": MEG is the SPICE spelling of mega; here write M for mega (m is milli), e.g. 1M`},
+		{"7.1Mhz", []string{"Hz"}, `"7.1Mhz" has an unknown unit "hz" (units are case-sensitive: write Hz, e.g. 7.1MHz)`},
+		{"7.1mhz", []string{"Hz"}, `"7.1mhz" has an unknown unit "hz" (m is milli: for megahertz write 7.1MHz (units are case-sensitive))`},
+		{"1uH", []string{"F"}, "unit H (an inductance) does not fit here (unit F, a capacitance)"},
 		{"3pX", []string{"F"}, `"3pX" has an unknown unit "X" (expected unit F)`},
 	}
 	for _, tc := range cases {
@@ -150,9 +155,9 @@ func TestParseComplex(t *testing.T) {
 		{"12.5+j-3", `"12.5+j-3": expected a number after j, as in 12.5-j180`},
 		{"12.5-jx", `"x" is not a number`},
 		{"j", `"j": expected a number after j, as in 12.5-j180`},
-		{"50V", "unit V does not fit here (unit ohm)"},
-		{"50pF", "unit F does not fit here (unit ohm)"},
-		{"5%", "unit % does not fit here (unit ohm)"},
+		{"50V", "unit V (a voltage) does not fit here (unit ohm, a resistance)"},
+		{"50pF", "unit F (a capacitance) does not fit here (unit ohm, a resistance)"},
+		{"5%", "unit % (a share) does not fit here (unit ohm, a resistance)"},
 		{"NaN", `"NaN" is not a number`},
 	} {
 		_, err := ParseComplex(bad.in)
@@ -228,5 +233,49 @@ func TestInterpLogLog(t *testing.T) {
 	}
 	if got := InterpLogLog([]Point{{V: 42}}, 1e9); got != 42 {
 		t.Errorf("a constant reads %g, want 42", got)
+	}
+}
+
+// TestAWGDiameter checks the gauge rule against the bare-wire diameters
+// tabulated in ASTM B258 (from memory, inches to four decimals: 0000
+// 0.4600, 10 0.1019, 18 0.0403, 24 0.0201, 36 0.0050). Tolerance half the
+// table's last digit, 0.00005 in.
+func TestAWGDiameter(t *testing.T) {
+	for _, c := range []struct {
+		n      int
+		inches float64
+	}{{-3, 0.4600}, {10, 0.1019}, {18, 0.0403}, {24, 0.0201}, {36, 0.0050}} {
+		if d := AWGDiameter(c.n) / 25.4e-3; math.Abs(d-c.inches) > 0.00005 {
+			t.Errorf("AWG %d: %.5f in, want %.4f in (ASTM B258)", c.n, d, c.inches)
+		}
+	}
+	for _, s := range []string{"18awg", "18AWG", "AWG18", "awg 18"} {
+		if n, ok := parseAWG(s); !ok || n != 18 {
+			t.Errorf("parseAWG(%q) = %d, %v; want 18", s, n, ok)
+		}
+	}
+	for _, s := range []string{"awg", "99awg", "-1awg", "x18awg"} {
+		if _, ok := parseAWG(s); ok {
+			t.Errorf("parseAWG(%q) accepted", s)
+		}
+	}
+}
+
+// TestWireGaugeAndCentimetres: wire=18awg reads as 1.024 mm (ASTM B258:
+// 0.0403 in), and lengths may be written in centimetres.
+func TestWireGaugeAndCentimetres(t *testing.T) {
+	src := "title t\nport in a z=50\nport out b z=50\ncore K od=2.5cm id=1.4cm h=1cm material=iron-mu10\n" +
+		"inductor L1 a b 1u core=K turns=8 wire=18awg\ncapacitor C1 b gnd 100p\n"
+	nl, err := Parse("t.net", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	w, _ := nl.Components[0].Attrs.Num("wire")
+	if math.Abs(w-0.0403*25.4e-3) > 0.00005*25.4e-3 {
+		t.Errorf("wire=18awg read as %g m, want 1.024 mm", w)
+	}
+	od, _ := nl.Cores[0].Attrs.Num("od")
+	if math.Abs(od-0.025) > 1e-12 {
+		t.Errorf("od=2.5cm read as %g m, want 0.025", od)
 	}
 }
