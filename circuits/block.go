@@ -19,6 +19,7 @@ func init() {
 		Kind: Block, Model: blockModel{},
 		Syntax: Keyword{Fields: []string{"name", "node", "node"}, Attrs: withMeasured(map[string]AttrSpec{
 			"pmax": {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W (average)"},
+			"vpk":  {Type: TPositive, Units: []string{"V"}, Help: "rated peak voltage at its ports in V"},
 		}), Required: []string{"measured"}},
 	})
 }

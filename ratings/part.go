@@ -160,6 +160,8 @@ func preparePart(c *circuits.Component, cores map[string]*CoreInfo, prof *Profil
 	case circuits.Line:
 		p.Class = ClassLine
 		p.prepareLine(c)
+	case circuits.Block:
+		p.Class = ClassBlock
 	}
 	return p
 }
@@ -287,6 +289,13 @@ func (p *Part) Limits(f float64) []Limit {
 	case circuits.Line:
 		given(Vpk, p.vpk, p.Class)
 		out = append(out, p.lineHeatLimit(f))
+	case circuits.Block:
+		// a measured filter is rated by the heat it can shed; a port
+		// voltage rating is optional (its connectors, its parts inside)
+		given(Pdiss, p.pmax, p.Class)
+		if p.vpk != nil {
+			given(Vpk, p.vpk, p.Class)
+		}
 	}
 	return out
 }

@@ -20,7 +20,8 @@ const (
 	ClassInductor     = "inductor"         // the winding
 	ClassCore         = "core"             // the magnetic core
 	ClassResistor     = "resistor"
-	ClassLine         = "line" // transmission line: dielectric and heating
+	ClassLine         = "line"  // transmission line: dielectric and heating
+	ClassBlock        = "block" // measured two-port: its ports' voltage and its dissipation
 )
 
 // classQuantities says which quantities each derating class may carry a
@@ -34,6 +35,7 @@ var classQuantities = map[string][]Quantity{
 	ClassCore:         {Bpk},
 	ClassResistor:     {Pdiss, Vpk},
 	ClassLine:         {Vpk, Pm},
+	ClassBlock:        {Vpk, Pdiss},
 }
 
 // Profile is a set of derating factors: the share of each absolute rating a
@@ -72,6 +74,7 @@ var builtinProfiles = map[string]*Profile{
 		ClassCore:         {Bpk: 0.8},
 		ClassResistor:     {Pdiss: 0.5, Vpk: 0.8},
 		ClassLine:         {Vpk: 0.6, Pm: 0.8},
+		ClassBlock:        {Vpk: 0.6, Pdiss: 0.6},
 	}},
 	"strict": {Name: "strict", TempMargin: 25, Factors: map[string]map[Quantity]float64{
 		ClassCapacitor1:   {Vpk: 0.5, Vrms: 0.5, Irms: 0.6, Pdiss: 0.5},
@@ -82,6 +85,7 @@ var builtinProfiles = map[string]*Profile{
 		ClassCore:         {Bpk: 0.7},
 		ClassResistor:     {Pdiss: 0.4, Vpk: 0.7},
 		ClassLine:         {Vpk: 0.5, Pm: 0.7},
+		ClassBlock:        {Vpk: 0.5, Pdiss: 0.5},
 	}},
 }
 
@@ -124,7 +128,7 @@ func (p *Profile) clone() *Profile {
 
 // Classes lists the derating classes in a fixed order.
 func Classes() []string {
-	return []string{ClassCapacitor1, ClassCapacitor2, ClassCapacitorAir, ClassCapacitor, ClassInductor, ClassCore, ClassResistor, ClassLine}
+	return []string{ClassCapacitor1, ClassCapacitor2, ClassCapacitorAir, ClassCapacitor, ClassInductor, ClassCore, ClassResistor, ClassLine, ClassBlock}
 }
 
 // LoadProfile returns a built-in profile by name (standard, strict, none)

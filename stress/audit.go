@@ -112,6 +112,7 @@ type Engine struct {
 	rparts       []*ratings.Part
 	forceScan    bool           // tests: scan the sampled phases instead of the exact worst
 	heatT        float64        // key-down time the temperature is judged at, s (+Inf steady)
+	block        []bool         // judged as a two-port by its ports (stress/block.go)
 	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
 }
 
@@ -137,6 +138,9 @@ func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, 
 		}
 	}
 	e.perCarrier = 1 + len(e.circle) + len(cond.Loads) + len(e.faults)
+	for i := range c.Elements {
+		e.block = append(e.block, isBlock(c, i))
+	}
 	for _, el := range c.Elements {
 		var rp *ratings.Part
 		if rs != nil {
@@ -401,6 +405,10 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		e.evalLine(w, l, i, ci, kind, cls, alpha, 0, scale, k, f, allQ)
 		return
 	}
+	if e.block[i] {
+		e.evalBlock(w, i, ci, kind, cls, alpha, scale, k)
+		return
+	}
 	s := w.carr
 	v := cmplx.Abs(s.V[0][i]+alpha*s.V[1][i]) * scale
 	cur := cmplx.Abs(s.I[0][i]+alpha*s.I[1][i]) * scale
@@ -506,6 +514,10 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 	for i := range w.c.Elements {
 		if l := w.c.Elements[i].Line(); l != nil {
 			e.lineCircle(w, l, i, first, ca, ra, scale, k, f)
+			continue
+		}
+		if e.block[i] {
+			e.blockCircle(w, i, first, ca, ra, scale, k)
 			continue
 		}
 		for _, x := range [3][2]complex128{{s.V[0][i], s.V[1][i]}, {s.I[0][i], s.I[1][i]}, {s.L[0][i], s.L[1][i]}} {
@@ -676,6 +688,10 @@ func (e *Engine) harmonicSums(w *workspace) {
 			for i := range c.Elements {
 				if l := c.Elements[i].Line(); l != nil {
 					e.lineHarmonic(w, l, s, i, h, cls, eh)
+					continue
+				}
+				if e.block[i] {
+					e.blockHarmonic(s, w, i, cls, e.harmonicCircles(w, s, cls), eh)
 					continue
 				}
 				mv := worst(s.V[0][i], s.V[1][i]) * eh
