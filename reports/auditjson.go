@@ -136,6 +136,7 @@ type JSONSection struct {
 	MaxNodeVpk    float64        `json:"max_node_vpk"`
 	Findings      []string       `json:"findings,omitempty"`
 	Tolerance     *JSONTolerance `json:"tolerance,omitempty"`
+	Tuning        *JSONTune      `json:"tuning,omitempty"`
 }
 
 // JSONAudit is the whole audit document.
@@ -171,6 +172,10 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 			js.Findings = append(js.Findings, f.Part+": "+f.Text)
 		}
 		js.Tolerance = tolJSON(s)
+		if s.Retune != nil {
+			t := TuneJSON(RetuneView(s))
+			js.Tuning = &t
+		}
 		doc.Sections = append(doc.Sections, js)
 		for _, p := range s.Parts {
 			jc := JSONComponent{File: s.File, Name: p.Name, Kind: string(p.Kind), Value: p.Value, Verdict: p.Verdict.String(),

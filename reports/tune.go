@@ -4,11 +4,14 @@ import (
 	"encoding/csv"
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 
 	"rfstress/circuits"
 	"rfstress/ratings"
+	"rfstress/stress"
+	"rfstress/tuning"
 )
 
 // TuneView is a tuning chart: the settings of a network's variable parts
@@ -74,7 +77,7 @@ func RowVerdictText(r TuneRow) string {
 	case !r.Matched:
 		return "unmatchable"
 	case r.Judged:
-		return VerdictWords(r.Verdict)
+		return r.Verdict.String()
 	}
 	return "matched"
 }
@@ -241,4 +244,60 @@ func WriteTuneJSON(w io.Writer, views []*TuneView) error {
 		out = append(out, TuneJSON(v))
 	}
 	return writeJSON(w, map[string]any{"tuning": out})
+}
+
+// TuneChart gathers a tuning chart from the tuning of each case.
+func TuneChart(nl *circuits.Netlist, m *tuning.Matcher, ls *tuning.LoadSet, cases []tuning.Case, res []tuning.Result, power float64) *TuneView {
+	v := &TuneView{File: nl.File, Title: nl.Title, Policy: m.Policy.String(), PolicyNote: m.Policy.Describe(),
+		TargetSWR: m.TargetSWR, PowerW: power, LoadSource: loadSource(ls, m.C.Zout), PortZ: m.C.Zout, Zs: m.C.Zin, Parts: tuneParts(m.Vars)}
+	for i, r := range res {
+		v.Rows = append(v.Rows, tuneRow(cases[i], r, power))
+	}
+	return v
+}
+
+// RetuneView is the tuning chart of a retuned audit, each load with the
+// verdict of the audit at its settings.
+func RetuneView(s *stress.Section) *TuneView {
+	rt := s.Retune
+	var zin complex128
+	var c0 complex128
+	if s.Engine != nil && s.Engine.C != nil {
+		zin, c0 = s.Engine.C.Zin, s.Engine.C.Zout
+	}
+	v := &TuneView{File: s.File, Title: s.Title, Policy: rt.Policy.String(), PolicyNote: rt.Policy.Describe(),
+		TargetSWR: rt.TargetSWR, PowerW: s.Conditions.PowerW, LoadSource: loadSource(rt.Loads, c0), PortZ: c0, Zs: zin, Parts: tuneParts(rt.Vars)}
+	for _, la := range rt.PerLoad {
+		row := tuneRow(la.Case, la.Tune, s.Conditions.PowerW)
+		if la.Section != nil {
+			row.Judged, row.Verdict, row.Worst = true, la.Verdict, la.Worst
+		}
+		v.Rows = append(v.Rows, row)
+	}
+	return v
+}
+
+func loadSource(ls *tuning.LoadSet, z0 complex128) string {
+	if ls.File || ls.SWR <= 1 {
+		return ls.Source
+	}
+	return fmt.Sprintf("the region within SWR %g of port out's %s (%d loads per carrier)", ls.SWR, circuits.FormatComplex(z0), len(ls.Points))
+}
+
+func tuneParts(vars []tuning.Var) []TunePart {
+	var out []TunePart
+	for _, p := range vars {
+		n := 0
+		if p.Adj.Discrete() {
+			n = len(p.Adj.Steps)
+		}
+		out = append(out, TunePart{Name: p.Name, Kind: p.Kind, Unit: p.Unit(), Lo: p.Adj.Lo, Hi: p.Adj.Hi, Steps: n, Nominal: p.Nominal})
+	}
+	return out
+}
+
+func tuneRow(c tuning.Case, r tuning.Result, power float64) TuneRow {
+	return TuneRow{FrequencyHz: r.F, Load: r.Load, Ring: c.Load.Ring, Matched: r.Matched,
+		Settings: r.Best.Values, SWR: r.Best.SWR, Zin: r.Best.Zin, LossFrac: r.Best.LossFrac, Eff: r.Best.Eff,
+		VpkW: r.Best.VpkPerRtW * math.Sqrt(power), Limit: r.Limit}
 }

@@ -37,10 +37,16 @@ type Case struct {
 	Theta   float64 // reflection angle on the SWR circle, degrees
 	OffBand bool    // a carrier-also frequency (wrong filter selected)
 	Exact   bool    // the continuous worst of the circle, not a sampled phase
+	Note    string  // retuned cases: the settings the case was solved at
 }
 
 // Describe renders the case for people.
 func (c Case) Describe() string {
+	if c.Note != "" {
+		n := c
+		n.Note = ""
+		return n.Describe() + " " + c.Note
+	}
 	f := circuits.FormatHz(c.F)
 	if c.OffBand {
 		f += " (outside the band)"
@@ -114,6 +120,7 @@ type Engine struct {
 	heatT        float64        // key-down time the temperature is judged at, s (+Inf steady)
 	block        []bool         // judged as a two-port by its ports (stress/block.go)
 	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
+	listed       []Case         // retuned audits: the cases of every load, listed (retune.go)
 }
 
 // NewEngine prepares the case layout for c under cond.
@@ -159,10 +166,18 @@ func (e *Engine) phaseAngle(k int) float64 {
 }
 
 // NumCases is the number of cases audited.
-func (e *Engine) NumCases() int { return len(e.carriers) * e.perCarrier }
+func (e *Engine) NumCases() int {
+	if e.listed != nil {
+		return len(e.listed)
+	}
+	return len(e.carriers) * e.perCarrier
+}
 
 // Case decodes case index i.
 func (e *Engine) Case(i int) Case {
+	if e.listed != nil {
+		return e.listed[i]
+	}
 	fi, j := i/e.perCarrier, i%e.perCarrier
 	c := Case{F: e.carriers[fi], OffBand: fi >= e.nBand}
 	switch {

@@ -348,6 +348,9 @@ type Section struct {
 	// Extra are the exact worst loads found on the SWR circle, cases
 	// NumCases … NumCases+len(Extra)−1.
 	Extra []Case
+	// Retune is set when the variable parts were retuned per load
+	// (retune.go).
+	Retune *Retune
 }
 
 // Case returns case i of the section.

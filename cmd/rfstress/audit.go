@@ -12,6 +12,7 @@ import (
 	"rfstress/ratings"
 	"rfstress/reports"
 	"rfstress/stress"
+	"rfstress/tuning"
 )
 
 func init() {
@@ -58,6 +59,8 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	reportPath := fs.String("report", "", "write the PDF stress report to `PATH`")
 	schemPath := fs.String("schematic", "", "write each file's schematic, coloured by verdict, as SVG to `PATH`")
 	tol := addTolFlags(fs)
+	retune := fs.Bool("retune", false, "retune the variable parts (range=, steps=) for every load of --loads (default: the file's SWR circle and loads) and audit each match at its own settings")
+	tf := addTuneFlags(fs)
 	if help, err := parseFlags(fs, args); help || err != nil {
 		return exitOK, err
 	}
@@ -82,6 +85,20 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	if dash > 1 {
 		return exitUsage, usagef("- (stdin) can be read only once")
 	}
+	policy, err := tf.check()
+	if err != nil {
+		return exitUsage, err
+	}
+	if !*retune && (fs.Changed("loads") || fs.Changed("match-swr") || fs.Changed("tune-policy")) {
+		return exitUsage, usagef("--loads, --match-swr and --tune-policy go with --retune")
+	}
+	if *retune && tol.trials != 0 {
+		return exitUsage, usagef("--retune and --trials are not combined yet: run the tolerance analysis at the nominal settings without --retune")
+	}
+	if *retune && *tf.loads != "" && !strings.HasPrefix(*tf.loads, "swr=") {
+		inputs = append(inputs, *tf.loads)
+	}
+	retuned := 0
 	threshold, err := failLevel(*failOn)
 	if err != nil {
 		return exitUsage, err
@@ -141,6 +158,17 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 			inputErrs = append(inputErrs, err.Error())
 			continue
 		}
+		if *retune && len(tuning.Vars(c)) > 0 {
+			sec, err := retuneFile(c, rs, cond, *allowUnrated, tf, policy)
+			if err != nil {
+				inputErrs = append(inputErrs, file+": "+err.Error())
+				continue
+			}
+			retuned++
+			sections = append(sections, sec)
+			engines = append(engines, sec.Engine)
+			continue
+		}
 		eng, err := stress.NewEngine(c, rs, cond)
 		if err != nil {
 			inputErrs = append(inputErrs, file+": "+err.Error())
@@ -164,6 +192,9 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	}
 	if len(inputErrs) > 0 {
 		return exitUsage, usageError{fmt.Errorf("%s", strings.Join(inputErrs, "\n"))}
+	}
+	if *retune && retuned == 0 {
+		return exitUsage, usagef("--retune: no file has a variable part (give a capacitor or inductor range=lo:hi)")
 	}
 	bank := stress.NewBank(sections)
 
@@ -206,6 +237,14 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		if err := reports.WriteAuditTextWidth(stdout, bank, *caution, textWidth(stdout)); err != nil {
 			return exitUsage, err
 		}
+		for _, s := range bank.Sections {
+			if s.Retune != nil {
+				fmt.Fprintln(stdout)
+				if err := reports.WriteTuneText(stdout, reports.RetuneView(s)); err != nil {
+					return exitUsage, err
+				}
+			}
+		}
 		if *reportPath != "" {
 			fmt.Fprintf(stdout, "  report written to %s\n", *reportPath)
 		}
@@ -247,4 +286,27 @@ func writeTo(path string, stdout io.Writer, inputs []string, fn func(io.Writer) 
 		return err
 	}
 	return out.Close()
+}
+
+// retuneFile tunes a file's variable parts for every load and audits each
+// match. The load set is --loads, else the file's own SWR circle (as a
+// region: centre and rings) and explicit loads.
+func retuneFile(c *circuits.Circuit, rs *ratings.Set, cond stress.Conditions, allowUnrated bool, tf *tuneFlags, policy tuning.Policy) (*stress.Section, error) {
+	m, err := tuning.NewMatcher(c, *tf.swr, policy)
+	if err != nil {
+		return nil, err
+	}
+	var ls *tuning.LoadSet
+	if *tf.loads != "" {
+		if ls, err = tuning.ParseLoads(*tf.loads, c.Zout, os.ReadFile); err != nil {
+			return nil, err
+		}
+	} else {
+		ls = tuning.Region(c.Zout, cond.SWR)
+		ls.Source = fmt.Sprintf("port out's z, the file's SWR %g region and loads", cond.SWR)
+		for _, z := range cond.Loads {
+			ls.Points = append(ls.Points, tuning.LoadPoint{Z: z})
+		}
+	}
+	return stress.RetuneAudit(c, rs, cond, allowUnrated, ls, m, *tf.workers)
 }

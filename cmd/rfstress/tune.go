@@ -1,12 +1,10 @@
 package main
 
 import (
-	"fmt"
 	"io"
 	"math"
 	"os"
 
-	"rfstress/circuits"
 	"rfstress/reports"
 	"rfstress/tuning"
 )
@@ -134,7 +132,7 @@ func runTune(args []string, stdout, stderr io.Writer) (int, error) {
 	if err != nil {
 		return exitUsage, usagef("%s: %v", file, err)
 	}
-	v := tuneView(nl, m, ls, cases, res, *power)
+	v := reports.TuneChart(nl, m, ls, cases, res, *power)
 	wroteStdout := false
 	if *jsonPath != "" {
 		if err := writeTo(*jsonPath, stdout, inputs, func(w io.Writer) error { return reports.WriteTuneJSON(w, []*reports.TuneView{v}) }); err != nil {
@@ -154,26 +152,4 @@ func runTune(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 	}
 	return exitOK, nil
-}
-
-// tuneView gathers a tuning chart for the reports.
-func tuneView(nl *circuits.Netlist, m *tuning.Matcher, ls *tuning.LoadSet, cases []tuning.Case, res []tuning.Result, power float64) *reports.TuneView {
-	v := &reports.TuneView{File: nl.File, Title: nl.Title, Policy: m.Policy.String(), PolicyNote: m.Policy.Describe(),
-		TargetSWR: m.TargetSWR, PowerW: power, LoadSource: ls.Source, PortZ: m.C.Zout, Zs: m.C.Zin}
-	if !ls.File && ls.SWR > 1 {
-		v.LoadSource = fmt.Sprintf("the region within SWR %g of port out's %s (%d loads per carrier)", ls.SWR, circuits.FormatComplex(m.C.Zout), len(ls.Points))
-	}
-	for _, p := range m.Vars {
-		n := 0
-		if p.Adj.Discrete() {
-			n = len(p.Adj.Steps)
-		}
-		v.Parts = append(v.Parts, reports.TunePart{Name: p.Name, Kind: p.Kind, Unit: p.Unit(), Lo: p.Adj.Lo, Hi: p.Adj.Hi, Steps: n, Nominal: p.Nominal})
-	}
-	for i, r := range res {
-		v.Rows = append(v.Rows, reports.TuneRow{FrequencyHz: r.F, Load: r.Load, Ring: cases[i].Load.Ring, Matched: r.Matched,
-			Settings: r.Best.Values, SWR: r.Best.SWR, Zin: r.Best.Zin, LossFrac: r.Best.LossFrac, Eff: r.Best.Eff,
-			VpkW: r.Best.VpkPerRtW * math.Sqrt(power), Limit: r.Limit})
-	}
-	return v
 }

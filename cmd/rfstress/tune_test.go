@@ -78,3 +78,61 @@ func TestTuneCommand(t *testing.T) {
 		t.Errorf("fixed network: exit %d, %s", code, errs)
 	}
 }
+
+// The example station's T tuner retuned over the invented measured file
+// and over the SWR 10 region: every load gets its own verdict, the JSON is
+// the same whatever the number of workers, and the chart says which
+// policy chose.
+func TestAuditRetuneStation(t *testing.T) {
+	net := "../../testdata/station/tuner-80m-vertical.net"
+	s1p := "../../testdata/station/vertical-80m.s1p"
+	code, out, errs := runCLI(t, "audit", net, "--retune", "--loads", s1p, "--band", "3.5M:3.8M")
+	if code == 2 {
+		t.Fatalf("exit 2: %s", errs)
+	}
+	if !strings.Contains(out, "tuning chart: loads from "+s1p) || !strings.Contains(out, "least-loss") || strings.Count(out, "\n  3.") < 13 {
+		t.Errorf("chart missing:\n%s", out)
+	}
+	var j1, j3 string
+	for _, w := range []string{"1", "3"} {
+		code, o, e := runCLI(t, "audit", net, "--retune", "--loads", "swr=10", "--tune-workers", w, "--json", "-")
+		if code != 1 {
+			t.Fatalf("swr=10: exit %d (want 1: C1 beyond its rating at the region's edge): %s", code, e)
+		}
+		if w == "1" {
+			j1 = o
+		} else {
+			j3 = o
+		}
+	}
+	if j1 != j3 {
+		t.Errorf("JSON differs between 1 and 3 workers")
+	}
+	var doc struct {
+		Sections []struct {
+			Tuning struct {
+				Policy string `json:"policy"`
+				Rows   []struct {
+					Outcome string `json:"outcome"`
+				} `json:"rows"`
+			} `json:"tuning"`
+		} `json:"sections"`
+	}
+	if err := json.Unmarshal([]byte(j1), &doc); err != nil {
+		t.Fatal(err)
+	}
+	rows := doc.Sections[0].Tuning.Rows
+	if len(rows) != 49 {
+		t.Fatalf("%d loads, want 49 (centre and 4 rings of 12)", len(rows))
+	}
+	seen := map[string]int{}
+	for _, r := range rows {
+		seen[r.Outcome]++
+	}
+	if seen["fail"] == 0 || seen["ok"] == 0 {
+		t.Errorf("outcomes %v: want some ok and some fail", seen)
+	}
+	if code, _, _ := runCLI(t, "audit", net, "--loads", "swr=10"); code != 2 {
+		t.Errorf("--loads without --retune: exit %d, want 2", code)
+	}
+}
