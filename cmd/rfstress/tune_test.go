@@ -93,20 +93,10 @@ func TestAuditRetuneStation(t *testing.T) {
 	if !strings.Contains(out, "tuning chart: loads from "+s1p) || !strings.Contains(out, "least-loss") || strings.Count(out, "\n  3.") < 13 {
 		t.Errorf("chart missing:\n%s", out)
 	}
-	var j1, j3 string
-	for _, w := range []string{"1", "3"} {
-		code, o, e := runCLI(t, "audit", net, "--retune", "--loads", "swr=10", "--tune-workers", w, "--json", "-")
-		if code != 1 {
-			t.Fatalf("swr=10: exit %d (want 1: C1 beyond its rating at the region's edge): %s", code, e)
-		}
-		if w == "1" {
-			j1 = o
-		} else {
-			j3 = o
-		}
-	}
-	if j1 != j3 {
-		t.Errorf("JSON differs between 1 and 3 workers")
+	// (settings with any worker count: tuning.TestTuneAllDeterministic)
+	code, j1, e := runCLI(t, "audit", net, "--retune", "--loads", "swr=10", "--tune-workers", "2", "--json", "-")
+	if code != 1 {
+		t.Fatalf("swr=10: exit %d (want 1: C1 beyond its rating at the region's edge): %s", code, e)
 	}
 	var doc struct {
 		Sections []struct {
