@@ -646,8 +646,8 @@ func airCoil(l, irms, f, wire float64) *AirCoil {
 func (fx FluxFix) String(p *Part) string {
 	k := p.Core
 	v := k.Ae * k.Le
-	s := fmt.Sprintf("at the same inductance: a core with Ae·le ≥ %s (this one %s; %d turns if Ae and le both grow ×%.3g)",
-		volumeUp(fx.AeLe), volume(v), p.Turns, math.Ceil(fx.Ratio*1000)/1000)
+	s := fmt.Sprintf("at the same inductance: a core with Ae·le ≥ %s (this one %s; %d turns if Ae and le both grow ×%s)",
+		volumeUp(fx.AeLe), volume(v), p.Turns, ceilText(fx.Ratio, 4))
 	if fx.Stack > 0 {
 		s += fmt.Sprintf(", or %d of these cores stacked with %d turns", fx.Stack, fx.StackTurns)
 	}

@@ -103,11 +103,18 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 			st.Buy, st.BuyText = ratings.BuyRating(q, st.Value, factor)
 			if q == ratings.Bpk || q == ratings.Bavg || q == ratings.Temp || q == ratings.Jrms {
 				// physical figures: core size, cooling surface, wire diameter
-				c := s.Case(st.Case)
+				// at the case of the largest use: the limit may vary with f
+				c, at := s.Case(st.Case), st.Value
+				if st.Limit.Abs > 0 {
+					c = s.Case(st.UtilCase)
+				}
 				lim, _ := limitFor(rp, q, c.F)
+				if lim.Abs > 0 {
+					at = e.stressAt(q, st.Util, lim.Derated)
+				}
 				ctx := ratings.RemedyContext{F: c.F, Ambient: e.Cond.Ambient, Irms: a.val[qIrms],
 					Pavg: a.pavg, KeyDown: e.heatT, Duty: e.Cond.Duty}
-				if r := rp.Remedy(lim, st.Value, ctx); r != "" {
+				if r := rp.Remedy(lim, at, ctx); r != "" {
 					st.BuyText = r
 				}
 			}
