@@ -264,7 +264,7 @@ func TestAWGDiameter(t *testing.T) {
 // TestWireGaugeAndCentimetres: wire=18awg reads as 1.024 mm (ASTM B258:
 // 0.0403 in), and lengths may be written in centimetres.
 func TestWireGaugeAndCentimetres(t *testing.T) {
-	src := "title t\nport in a z=50\nport out b z=50\ncore K od=2.5cm id=1.4cm h=1cm material=iron-mu10\n" +
+	src := "title t\nport in a z=50\nport out b z=50\ncore K od=2.5cm id=1.4cm h=1cm material=iron mu=10\n" +
 		"inductor L1 a b 1u core=K turns=8 wire=18awg\ncapacitor C1 b gnd 100p\n"
 	nl, err := Parse("t.net", []byte(src))
 	if err != nil {
