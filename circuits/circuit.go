@@ -17,6 +17,7 @@ type Element struct {
 	Branch int     // first branch-current unknown (−1 when it has none)
 	q      []Point // Q against frequency (constant when one point)
 	qScale float64
+	qLn    []float64 // ln f, ln Q of each q point, taken once
 	esr    float64
 	df     float64
 	meas   *measuredData // measured impedance (parts) or S-parameters (blocks)
@@ -105,7 +106,27 @@ func (c *Circuit) Size() int { return len(c.Nodes) + c.nBranch }
 // Q returns the element's Q at f: log Q interpolated against log f between
 // the given points, held at the end values outside them.
 func (e *Element) Q(f float64) float64 {
-	return interpLogLog(e.q, f) * e.qScale
+	pts := e.q
+	n := len(pts)
+	if n < 2 || len(e.qLn) != 2*n {
+		return interpLogLog(pts, f) * e.qScale
+	}
+	if f <= pts[0].F {
+		return pts[0].V * e.qScale
+	}
+	if f >= pts[n-1].F {
+		return pts[n-1].V * e.qScale
+	}
+	// the same straight line on log-log axes as interpLogLog, with the
+	// points' logarithms taken once at Build: one log and one exp a call
+	ln := e.qLn
+	for i := 1; i < n; i++ {
+		if f <= pts[i].F {
+			lf0, lq0, lf1, lq1 := ln[2*i-2], ln[2*i-1], ln[2*i], ln[2*i+1]
+			return math.Exp(lq0+(lq1-lq0)/(lf1-lf0)*(math.Log(f)-lf0)) * e.qScale
+		}
+	}
+	return pts[n-1].V * e.qScale
 }
 
 func interpLogLog(pts []Point, f float64) float64 {
@@ -148,6 +169,12 @@ func prepareLoss(e *Element) {
 	}
 	if v, ok := comp.Attrs.Num("df"); ok {
 		e.df = v
+	}
+	if len(e.q) > 1 {
+		e.qLn = make([]float64, 0, 2*len(e.q))
+		for _, p := range e.q {
+			e.qLn = append(e.qLn, math.Log(p.F), math.Log(p.V))
+		}
 	}
 	if e.q != nil || e.esr != 0 || e.df != 0 {
 		return
@@ -395,12 +422,21 @@ func nodeV(x []complex128, i int) complex128 {
 
 // PartStates reads element states out of a solution vector x at f.
 func (c *Circuit) PartStates(x []complex128, f float64, out []PartState) {
+	c.partStates(x, f, out, true)
+}
+
+// partStates is PartStates, with the dissipation left out when withLoss is
+// false (Split keeps the loss resistance per element instead).
+func (c *Circuit) partStates(x []complex128, f float64, out []PartState, withLoss bool) {
 	for i := range c.Elements {
 		e := &c.Elements[i]
 		// the state goes straight into out: a pointer to a local handed
 		// to an interface method would move it to the heap every call
 		out[i] = e.Model.State(e, x, f)
 		st := &out[i]
+		if !withLoss {
+			continue
+		}
 		if d, ok := e.Model.(Dissipator); ok {
 			st.Ploss = d.Dissipation(e, st, f)
 		} else {

@@ -2,7 +2,7 @@ package circuits
 
 import (
 	"errors"
-	"math/cmplx"
+	"math"
 )
 
 // ErrSingular is returned when the network matrix has no usable pivot: a
@@ -30,16 +30,17 @@ func (f *LU) Factor(m []complex128) error {
 	copy(f.a, m)
 	a := f.a
 	// scale for the singularity test: largest magnitude in the matrix
+	// largest |entry|, found in squares: one square root, not n²
 	var scale float64
 	for _, v := range a {
-		if x := cmplx.Abs(v); x > scale {
+		if x := abs2(v); x > scale {
 			scale = x
 		}
 	}
 	if scale == 0 {
 		return ErrSingular
 	}
-	tiny := scale * 1e-15
+	tiny := math.Sqrt(scale) * 1e-15
 	for k := 0; k < n; k++ {
 		p := k
 		best := abs1(a[k*n+k])

@@ -84,7 +84,7 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 			x[c.Out] = 1
 		}
 		w.fz.Solve(x)
-		c.PartStates(x, f, w.parts)
+		c.partStates(x, f, w.parts, false)
 		for i, ps := range w.parts {
 			s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
 			s.V2[k][i], s.I2[k][i] = ps.V2, ps.I2
@@ -110,7 +110,9 @@ func (s *Split) Alpha(l Load) complex128 {
 		return 0
 	}
 	d := s.Zth + l.Z
-	if cmplx.Abs(d) < 1e-12*(cmplx.Abs(s.Zth)+1e-300) {
+	// |d| < 1e-12·|Zth| compared in squares (impedances are far inside
+	// the range where squaring is exact enough); d = 0 covers Zth = 0
+	if d == 0 || abs2(d) < 1e-24*abs2(s.Zth) {
 		// a lossless network resonated by a lossless load: keep it finite
 		d = complex(1e-12*cmplx.Abs(s.Zth)+1e-18, 0)
 	}

@@ -236,16 +236,29 @@ func mm(v float64) string { return fmt.Sprintf("%.3g mm", v*1e3) }
 //	           flux limit (air); temp with a core of known surface, unless
 //	           its material is known and has no tmax (air)
 //	resistor:  pdiss, vpk
-func (p *Part) Limits(f float64) []Limit {
-	var out []Limit
+func (p *Part) Limits(f float64) []Limit { return p.limits(nil, f, true) }
+
+// AppendLimitValues appends the limits of Limits to dst with the numbers
+// only, no Basis text: the audit asks for every part at every carrier and
+// formats the text only for the case that binds (Limits).
+func (p *Part) AppendLimitValues(dst []Limit, f float64) []Limit { return p.limits(dst, f, false) }
+
+func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 	given := func(q Quantity, a *circuits.Attr, class string) {
 		fac := p.prof.Factor(class, q)
 		if a == nil {
-			out = append(out, Limit{Quantity: q, Factor: fac, Basis: fmt.Sprintf("not rated: no %s= in netlist", attrName(q))})
+			l := Limit{Quantity: q, Factor: fac}
+			if text {
+				l.Basis = fmt.Sprintf("not rated: no %s= in netlist", attrName(q))
+			}
+			out = append(out, l)
 			return
 		}
-		out = append(out, Limit{Quantity: q, Abs: a.Num, Derated: a.Num * fac, Factor: fac,
-			Basis: fmt.Sprintf("%s=%s in netlist", a.Key, a.Raw)})
+		l := Limit{Quantity: q, Abs: a.Num, Derated: a.Num * fac, Factor: fac}
+		if text {
+			l.Basis = fmt.Sprintf("%s=%s in netlist", a.Key, a.Raw)
+		}
+		out = append(out, l)
 	}
 	switch p.Kind {
 	case circuits.Capacitor:
@@ -253,13 +266,13 @@ func (p *Part) Limits(f float64) []Limit {
 		if p.vrms != nil {
 			given(Vrms, p.vrms, p.Class)
 		}
-		out = append(out, p.currentLimit(f, true))
+		out = append(out, p.currentLimit(f, true, text))
 		if p.pmax != nil {
 			given(Pdiss, p.pmax, p.Class)
 		}
 	case circuits.Inductor:
 		if p.irms != nil || p.Wire == 0 {
-			out = append(out, p.currentLimit(f, false))
+			out = append(out, p.currentLimit(f, false, text))
 		}
 		// Three core limits, judged apart: saturation (a rating), the
 		// heating guide (advice) and temperature (a rating). A
@@ -271,17 +284,17 @@ func (p *Part) Limits(f float64) []Limit {
 		}
 		if p.Core != nil && p.Turns > 0 && p.Core.Ae > 0 {
 			if m == nil || m.Bsat > 0 {
-				out = append(out, p.satLimit())
+				out = append(out, p.satLimit(text))
 			}
 			if m.GuideFlux(f) > 0 {
-				out = append(out, p.guideLimit(f))
+				out = append(out, p.guideLimit(f, text))
 			}
 		}
 		if p.Core != nil && p.Area > 0 && (m == nil || m.Tmax > 0) {
-			out = append(out, p.tempLimit())
+			out = append(out, p.tempLimit(text))
 		}
 		if p.Wire > 0 {
-			out = append(out, p.densityLimit(f))
+			out = append(out, p.densityLimit(f, text))
 		}
 	case circuits.Resistor:
 		given(Pdiss, p.pmax, p.Class)
@@ -318,7 +331,7 @@ func attrName(q Quantity) string {
 //	  so I ∝ (f0/f)^¼;
 //	inductor below: loss only falls toward DC, rating held;
 //	inductor above: constant Q, R = ωL/Q ∝ f, so I ∝ √(f0/f).
-func (p *Part) currentLimit(f float64, capacitor bool) Limit {
+func (p *Part) currentLimit(f float64, capacitor, text bool) Limit {
 	fac := p.prof.Factor(p.Class, Irms)
 	l := Limit{Quantity: Irms, Factor: fac}
 	a := p.irms
@@ -348,6 +361,9 @@ func (p *Part) currentLimit(f float64, capacitor bool) Limit {
 		v, how = circuits.InterpLogLog(pts, f), "interpolated"
 	}
 	l.Abs, l.Derated = v, v*fac
+	if !text {
+		return l
+	}
 	l.Basis = fmt.Sprintf("irms=%s in netlist; at %s %s", a.Raw, circuits.FormatHz(f), how)
 	if capacitor && p.Value > 0 && f > 0 {
 		// the current rating caps the RF voltage at V = I·Xc: at high
@@ -360,15 +376,20 @@ func (p *Part) currentLimit(f float64, capacitor bool) Limit {
 
 // satLimit is the saturation rating: the material's bsat, derated by the
 // profile's core factor.
-func (p *Part) satLimit() Limit {
+func (p *Part) satLimit(text bool) Limit {
 	fac := p.prof.Factor(ClassCore, Bpk)
 	l := Limit{Quantity: Bpk, Factor: fac}
 	m := p.Core.Material
 	if m == nil || m.Bsat <= 0 {
-		l.Basis = fmt.Sprintf("not rated: core %s names no material= with a saturation flux density", p.Core.Name)
+		if text {
+			l.Basis = fmt.Sprintf("not rated: core %s names no material= with a saturation flux density", p.Core.Name)
+		}
 		return l
 	}
 	l.Abs, l.Derated = m.Bsat, m.Bsat*fac
+	if !text {
+		return l
+	}
 	l.Basis = fmt.Sprintf("saturation %s of %s (peak flux at PEP, harmonics added)", circuits.FormatSI(m.Bsat, "T"), m.Describe())
 	if !m.BsatGiven {
 		l.Basis += fmt.Sprintf(", the %s class figure (from memory)", m.Class)
@@ -378,10 +399,13 @@ func (p *Part) satLimit() Limit {
 
 // guideLimit is the heating guide at f: advice, never a rating. Its
 // stress is the peak flux at average power.
-func (p *Part) guideLimit(f float64) Limit {
+func (p *Part) guideLimit(f float64, text bool) Limit {
 	m := p.Core.Material
 	g := m.GuideFlux(f)
 	l := Limit{Quantity: Bavg, Abs: g, Derated: g, Factor: 1, Advice: true}
+	if !text {
+		return l
+	}
 	if len(m.Guide) > 0 {
 		l.Basis = fmt.Sprintf("heating guide of %s at %s (its own points); advice, not a rating", m.Describe(), circuits.FormatHz(f))
 	} else {
@@ -391,7 +415,7 @@ func (p *Part) guideLimit(f float64) Limit {
 	return l
 }
 
-func (p *Part) tempLimit() Limit {
+func (p *Part) tempLimit(text bool) Limit {
 	l := Limit{Quantity: Temp}
 	m := p.Core.Material
 	if m == nil || m.Tmax <= 0 {
@@ -404,13 +428,19 @@ func (p *Part) tempLimit() Limit {
 	}
 	l.Abs, l.Derated = m.Tmax, m.Tmax-margin
 	l.Factor = l.Derated / l.Abs
+	if !text {
+		return l
+	}
 	l.Basis = fmt.Sprintf("tmax %.0f °C of %s, less %.0f °C margin (%s profile)", m.Tmax, m.Describe(), margin, name)
 	return l
 }
 
-func (p *Part) densityLimit(f float64) Limit {
+func (p *Part) densityLimit(f float64, text bool) Limit {
 	fac := p.prof.Factor(ClassInductor, Jrms)
 	j := DensityLimit(f, p.Wire, Rho20Copper)
+	if !text {
+		return Limit{Quantity: Jrms, Abs: j, Derated: j * fac, Factor: fac}
+	}
 	return Limit{Quantity: Jrms, Abs: j, Derated: j * fac, Factor: fac,
 		Basis: fmt.Sprintf("wire surface loss %.2g W/cm² in still air (from memory): %s wire at %s conducts on %.3g mm²",
 			WireHeatFlux*1e-4, mm(p.Wire), circuits.FormatSI(f, "Hz"), ConductingArea(f, p.Wire, Rho20Copper)*1e6)}

@@ -3,6 +3,8 @@ package ratings
 import (
 	"fmt"
 	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -373,5 +375,45 @@ inductor L a b 0.3u core=former turns=12 wire=1mm
 	}
 	if !hasLimit(p, 7e6, Jrms) {
 		t.Error("the wire is still judged")
+	}
+}
+
+// TestLimitValuesMatchLimits: the audit's text-free limits carry exactly
+// the numbers of the full limits, for every part of the test filter and
+// of every example station netlist, inside, between and outside rated
+// frequency points. (The two share one code path; the text is the only
+// thing left out; an unrated limit may keep its fixed wording.)
+func TestLimitValuesMatchLimits(t *testing.T) {
+	sets := []*Set{mustPrepare(t, goodNet, BuiltinProfile("standard"))}
+	files, _ := filepath.Glob("../testdata/station/*.net")
+	for _, f := range files {
+		src, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		sets = append(sets, mustPrepare(t, string(src), BuiltinProfile("standard")))
+	}
+	var buf []Limit
+	n := 0
+	for _, s := range sets {
+		for _, p := range s.Parts {
+			for _, f := range []float64{0.5e6, 1.8e6, 7e6, 7.1e6, 14.2e6, 30e6, 120e6} {
+				full := p.Limits(f)
+				buf = p.AppendLimitValues(buf[:0], f)
+				if len(buf) != len(full) {
+					t.Fatalf("%s at %g Hz: %d limits without text, %d with", p.Name, f, len(buf), len(full))
+				}
+				for i, l := range full {
+					v := buf[i]
+					if v.Quantity != l.Quantity || v.Abs != l.Abs || v.Derated != l.Derated || v.Factor != l.Factor || (v.Basis != "" && l.Abs > 0) {
+						t.Errorf("%s at %g Hz: %+v without text, %+v with", p.Name, f, v, l)
+					}
+					n++
+				}
+			}
+		}
+	}
+	if n < 100 {
+		t.Errorf("only %d limits compared", n)
 	}
 }

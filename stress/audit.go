@@ -121,6 +121,7 @@ type Engine struct {
 	block        []bool         // judged as a two-port by its ports (stress/block.go)
 	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
 	listed       []Case         // retuned audits: the cases of every load, listed (retune.go)
+	limBuf       []ratings.Limit
 }
 
 // NewEngine prepares the case layout for c under cond.
@@ -406,7 +407,7 @@ func (e *Engine) evalNodes(w *workspace, ci, cls int, alpha complex128, scale, k
 // evalNode keeps node ni's peak voltage at one case if it is the worst.
 func (e *Engine) evalNode(w *workspace, ni, ci, cls int, alpha complex128, scale, k float64, nw *nodeWorst) {
 	s := w.carr
-	v := math.Sqrt2 * (cmplx.Abs(s.Node[0][ni]+alpha*s.Node[1][ni])*scale + k*w.nodeH[cls][ni])
+	v := math.Sqrt2 * (mag(s.Node[0][ni]+alpha*s.Node[1][ni])*scale + k*w.nodeH[cls][ni])
 	if v > nw.vpk {
 		nw.vpk, nw.node, nw.at = v, ni, ci
 	}
@@ -425,8 +426,8 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		return
 	}
 	s := w.carr
-	v := cmplx.Abs(s.V[0][i]+alpha*s.V[1][i]) * scale
-	cur := cmplx.Abs(s.I[0][i]+alpha*s.I[1][i]) * scale
+	v := mag(s.V[0][i]+alpha*s.V[1][i]) * scale
+	cur := mag(s.I[0][i]+alpha*s.I[1][i]) * scale
 	avg := e.Cond.AvgRatio
 	var q [nQ]float64
 	var has [nQ]bool
@@ -439,7 +440,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	var heat ratings.Heat
 	if rp := e.rparts[i]; rp != nil {
 		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
-			lam := cmplx.Abs(s.L[0][i]+alpha*s.L[1][i]) * scale
+			lam := mag(s.L[0][i]+alpha*s.L[1][i]) * scale
 			q[qBpk] = rp.FluxPeak(math.Sqrt2 * (lam + k*w.pkL[cls][i]))
 			// the heating guide looks at the flux of the average power
 			q[qBavg] = q[qBpk] * math.Sqrt(avg)
@@ -676,23 +677,23 @@ func (e *Engine) harmonicSums(w *workspace) {
 			var worst func(x0, x1 complex128) float64
 			switch {
 			case cls == hOpen:
-				worst = func(x0, x1 complex128) float64 { return cmplx.Abs(x0) }
+				worst = func(x0, x1 complex128) float64 { return mag(x0) }
 			case cls == hShort:
 				a := s.Alpha(circuits.Short)
-				worst = func(x0, x1 complex128) float64 { return cmplx.Abs(x0 + a*x1) }
+				worst = func(x0, x1 complex128) float64 { return mag(x0 + a*x1) }
 			case len(e.circle) == 0:
 				a := s.Alpha(circuits.Load{Z: c.Zout})
-				worst = func(x0, x1 complex128) float64 { return cmplx.Abs(x0 + a*x1) }
+				worst = func(x0, x1 complex128) float64 { return mag(x0 + a*x1) }
 			default:
 				if ca, ra, ok := e.alphaCircle(s); ok {
 					worst = func(x0, x1 complex128) float64 {
-						return cmplx.Abs(x0+ca*x1) + ra*cmplx.Abs(x1)
+						return mag(x0+ca*x1) + ra*mag(x1)
 					}
 				} else {
 					worst = func(x0, x1 complex128) float64 {
 						var m float64
 						for _, l := range e.circle {
-							if v := cmplx.Abs(x0 + s.Alpha(l)*x1); v > m {
+							if v := mag(x0 + s.Alpha(l)*x1); v > m {
 								m = v
 							}
 						}
@@ -731,17 +732,21 @@ func (e *Engine) harmonicSums(w *workspace) {
 // once per carrier and every tolerance trial reuses the answer.
 func (e *Engine) limitsAt(f float64) []partLimits {
 	out := make([]partLimits, len(e.C.Elements))
+	ratios := make([]float64, len(e.C.Elements)*len(e.levels))
+	for i := range ratios {
+		ratios[i] = 1
+	}
 	for i := range e.C.Elements {
 		rp := e.rparts[i]
 		pl := &out[i]
-		pl.areaRatio = make([]float64, len(e.levels))
-		for h := range pl.areaRatio {
-			pl.areaRatio[h] = 1
-		}
+		pl.areaRatio = ratios[i*len(e.levels) : (i+1)*len(e.levels)]
 		if rp == nil {
 			continue
 		}
-		for _, l := range rp.Limits(f) {
+		// numbers only: the text of a limit is formatted when a verdict
+		// needs it (judge), not for every part at every carrier
+		e.limBuf = rp.AppendLimitValues(e.limBuf[:0], f)
+		for _, l := range e.limBuf {
 			if qi := qIndex(l.Quantity); qi >= 0 && l.Abs > 0 && l.Derated > 0 {
 				pl.derated[qi] = l.Derated
 				pl.absRatio[qi] = l.Abs / l.Derated
@@ -798,3 +803,11 @@ func qIndex(q ratings.Quantity) int {
 	}
 	return -1
 }
+
+// mag is |z| as √(re²+im²), without the rescaling math.Hypot does to
+// survive squares beyond the float range: the phasors here are volts,
+// amperes and volt-seconds per volt of drive, far inside ±1e150, and a
+// part's stress below 1e-150 that squares to zero is zero for any rating.
+// It serves the per-case and per-harmonic magnitudes; the circle geometry
+// keeps cmplx.Abs.
+func mag(z complex128) float64 { return math.Sqrt(real(z)*real(z) + imag(z)*imag(z)) }

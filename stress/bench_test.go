@@ -6,6 +6,7 @@ import (
 	"math/cmplx"
 	"os"
 	"strings"
+	"syscall"
 	"testing"
 	"time"
 
@@ -187,31 +188,50 @@ func BenchmarkLadderAudit5000(b *testing.B) { benchLadderAudit(b, 5000) }
 // harmonics to the 9th, open and short.
 var benchHeavy = append(append([]string{}, benchDefault...), "points=201", "phases=3600")
 
+// cpuTime is the CPU time the process has used (user and system, every
+// thread: the garbage collector's work counts against the audit).
+func cpuTime() time.Duration {
+	var ru syscall.Rusage
+	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
+		return 0
+	}
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
+}
+
 // scalarRate measures the machine's scalar floating-point rate in flop/s
-// with the loop of BenchmarkScalarRate, so a benchmark can state its flop
-// bound from the same run.
+// with the loop of BenchmarkScalarRate, in CPU time and as the best of
+// five, so a benchmark can state its flop bound from the same run and a
+// busy machine does not flatter it.
 func scalarRate() float64 {
-	const iters = 20_000_000
-	a0, a1, a2, a3 := 1.0, 1.1, 1.2, 1.3
-	const m, c = 0.999999, 1e-7
-	start := time.Now()
-	for i := 0; i < iters; i++ {
-		a0 = a0*m + c
-		a1 = a1*m + c
-		a2 = a2*m + c
-		a3 = a3*m + c
+	const iters = 10_000_000
+	best := 0.0
+	for r := 0; r < 5; r++ {
+		a0, a1, a2, a3 := 1.0, 1.1, 1.2, 1.3
+		const m, c = 0.999999, 1e-7
+		start := cpuTime()
+		for i := 0; i < iters; i++ {
+			a0 = a0*m + c
+			a1 = a1*m + c
+			a2 = a2*m + c
+			a3 = a3*m + c
+		}
+		d := cpuTime() - start
+		if a0+a1+a2+a3 == 0 {
+			panic("unreachable")
+		}
+		if d > 0 {
+			best = math.Max(best, 8*iters/d.Seconds())
+		}
 	}
-	d := time.Since(start)
-	if a0+a1+a2+a3 == 0 {
-		panic("unreachable")
-	}
-	return 8 * iters / d.Seconds()
+	return best
 }
 
 // BenchmarkAuditHeavyFlopBound runs the heavy audit and reports, beside
 // its time, the time the solver's own arithmetic would take at the
 // scalar rate measured in the same run: per carrier and per harmonic one
-// factorisation and two solves (Factorization.Flops).
+// factorisation and two solves (Factorization.Flops). The ratio x-bound
+// compares CPU times, which a busy machine disturbs far less than wall
+// time.
 func BenchmarkAuditHeavyFlopBound(b *testing.B) {
 	fx := build(b, benchSource(b), benchHeavy...)
 	fz, err := fx.c.Factor(3.6e6, nil)
@@ -231,6 +251,7 @@ func BenchmarkAuditHeavyFlopBound(b *testing.B) {
 	rate := scalarRate()
 	bound := float64(fills) * (ff + 2*fs) / rate
 	b.ReportAllocs()
+	cpu0 := cpuTime()
 	for b.Loop() {
 		// the whole audit as a caller has it: limits asked of the
 		// ratings layer, every case, the verdicts
@@ -242,8 +263,9 @@ func BenchmarkAuditHeavyFlopBound(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
-	per := b.Elapsed().Seconds() / float64(b.N)
+	per := (cpuTime() - cpu0).Seconds() / float64(b.N)
 	b.ReportMetric(bound*1e3, "bound-ms")
+	b.ReportMetric(per*1e3, "cpu-ms/op")
 	b.ReportMetric(per/bound, "x-bound")
 	b.ReportMetric(rate/1e9, "Gflop/s")
 }
