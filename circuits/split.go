@@ -116,7 +116,9 @@ func (s *Split) Alpha(l Load) complex128 {
 		// a lossless network resonated by a lossless load: keep it finite
 		d = complex(1e-12*cmplx.Abs(s.Zth)+1e-18, 0)
 	}
-	return -s.Voc / d
+	// −Voc·d̄/|d|²: the runtime's complex division guards a range that
+	// an impedance never leaves, at several times the cost
+	return -s.Voc * conj(d) * complex(1/abs2(d), 0)
 }
 
 // Part returns the state of element i for weight α and EMF e (rms).
