@@ -419,7 +419,9 @@ func (p *Part) tempLimit(text bool) Limit {
 	l := Limit{Quantity: Temp}
 	m := p.Core.Material
 	if m == nil || m.Tmax <= 0 {
-		l.Basis = fmt.Sprintf("not rated: core %s has no material with tmax", p.Core.Name)
+		if text {
+			l.Basis = fmt.Sprintf("not rated: core %s has no material with tmax", p.Core.Name)
+		}
 		return l
 	}
 	margin, name := 0.0, "no"
