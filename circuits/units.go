@@ -30,11 +30,11 @@ func ParseValue(s string, want ...string) (float64, error) {
 	}
 	num, rest := splitNumber(s)
 	if num == "" {
-		return 0, fmt.Errorf("%q is not a number", s)
+		return 0, fmt.Errorf("%s is not a number", Quote(s))
 	}
 	v, err := strconv.ParseFloat(num, 64)
 	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-		return 0, fmt.Errorf("%q is not a finite number", s)
+		return 0, fmt.Errorf("%s is not a finite number", Quote(s))
 	}
 	if rest == "" {
 		return v, nil
@@ -78,11 +78,11 @@ func ParseValue(s string, want ...string) (float64, error) {
 	_ = r
 	pre := rest[:size]
 	if strings.HasPrefix(strings.ToUpper(rest), "MEG") {
-		return 0, fmt.Errorf("%q: MEG is the SPICE spelling of mega; here write M for mega (m is milli), e.g. %sM", s, num)
+		return 0, fmt.Errorf("%s: MEG is the SPICE spelling of mega; here write M for mega (m is milli), e.g. %sM", Quote(s), num)
 	}
 	f, ok := prefixes[pre]
 	if !ok {
-		return 0, fmt.Errorf("%q has an unknown prefix or unit %q (SI prefixes f p n u µ m k M G, then a unit)", s, rest)
+		return 0, fmt.Errorf("%s has an unknown prefix or unit %s (SI prefixes f p n u µ m k M G, then a unit)", Quote(s), Quote(rest))
 	}
 	unit := rest[size:]
 	if unit == "" {
@@ -108,10 +108,10 @@ func ParseValue(s string, want ...string) (float64, error) {
 			} else {
 				hint += ", e.g. " + num + pre + u
 			}
-			return 0, fmt.Errorf("%q has an unknown unit %q (%s)", s, unit, hint)
+			return 0, fmt.Errorf("%s has an unknown unit %s (%s)", Quote(s), Quote(unit), hint)
 		}
 	}
-	return 0, fmt.Errorf("%q has an unknown unit %q (expected %s)", s, unit, wantText(want))
+	return 0, fmt.Errorf("%s has an unknown unit %s (expected %s)", Quote(s), Quote(unit), wantText(want))
 }
 
 // unitQuantity names what each unit measures, for messages.
@@ -229,7 +229,7 @@ func ParseComplex(s string) (complex128, error) {
 	}
 	imText := t[jpos+1:]
 	if imText == "" || imText[0] == '-' || imText[0] == '+' {
-		return 0, fmt.Errorf("%q: expected a number after j, as in 12.5-j180", s)
+		return 0, fmt.Errorf("%s: expected a number after j, as in 12.5-j180", Quote(s))
 	}
 	im, err := ParseValue(imText, "ohm")
 	if err != nil {
@@ -237,7 +237,7 @@ func ParseComplex(s string) (complex128, error) {
 	}
 	z := complex(re, sign*im)
 	if cmplx.IsNaN(z) || cmplx.IsInf(z) {
-		return 0, fmt.Errorf("%q is not a finite impedance", s)
+		return 0, fmt.Errorf("%s is not a finite impedance", Quote(s))
 	}
 	return z, nil
 }

@@ -93,6 +93,9 @@ func Prepare(nl *circuits.Netlist, mats map[string]*Material, prof *Profile) (*S
 	for _, s := range nl.Materials {
 		m := materialFrom(s, &errs)
 		if m == nil {
+			// its error is reported; a stand-in keeps the cores that name
+			// it from raising a second, cascaded "unknown material"
+			set.Materials[s.Name] = &Material{Name: s.Name, Class: "air", Mu: 1, Pos: s.Pos}
 			continue
 		}
 		if old := lookupMaterial(set.Materials, m.Name); old != nil {

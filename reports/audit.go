@@ -160,6 +160,7 @@ func WriteAuditText(w io.Writer, b *stress.Bank, cautionV float64) error {
 // columns (0: no limit): long lines wrap with a hanging indent and the
 // part table's case column wraps or moves under each row.
 func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width int) error {
+	w = &escapeWriter{w: w}
 	n := len(b.Sections)
 	plural := "netlist"
 	if n != 1 {
@@ -174,7 +175,7 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 	if math.IsInf(b.SafeW, 1) {
 		wrapLine(w, width, "  ", "    ", "maximum safe power: no rated limit binds (add ratings)")
 	} else {
-		wrapLine(w, width, "  ", "    ", fmt.Sprintf("maximum safe power %s, set by %s %s in %s", FormatPower(b.SafeW), b.LimitPart, QuantityLabel(b.LimitQ), b.LimitFile))
+		wrapLine(w, width, "  ", "    ", fmt.Sprintf("maximum safe power %s, set by %s %s in %s", FormatPower(b.SafeW), b.LimitPart, QuantityLabel(b.LimitQ), Headline(b.LimitFile)))
 	}
 	if len(b.Sections) > 1 {
 		// each file's own safe power, so one deliberate fault scenario
@@ -187,7 +188,7 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 		for _, s := range b.Sections {
 			p := FormatPower(s.SafeW)
 			lead := fmt.Sprintf("    %-8s %s%s  ", s.Verdict, strings.Repeat(" ", pw-runeLen(p)), p)
-			line := s.File
+			line := Headline(s.File)
 			if !math.IsInf(s.SafeW, 1) {
 				line += fmt.Sprintf(" (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
 			}
@@ -197,7 +198,7 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 	var hot []string
 	for _, s := range b.Sections {
 		if s.MaxNodeVpk >= cautionV {
-			hot = append(hot, fmt.Sprintf("%s node %s", s.File, s.MaxNodeAt))
+			hot = append(hot, fmt.Sprintf("%s node %s", Headline(s.File), s.MaxNodeAt))
 		}
 	}
 	if len(hot) > 0 {

@@ -238,7 +238,7 @@ func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 					}
 				}
 				row = append(row, s.Case(k.Case[ratings.Vpk]).Describe(), s.Case(k.Case[ratings.Irms]).Describe(), p.Verdict.String(), csvNum(p.Util))
-				cw.Write(row)
+				cw.Write(csvSafeRow(row))
 			}
 			writeTolCSV(cw, s, p)
 		}
@@ -338,7 +338,7 @@ func writeTolCSV(cw *csv.Writer, s *stress.Section, p *stress.PartResult) {
 				row = append(row, cell)
 			}
 			row = append(row, "", "", p.Verdict.String(), csvNum(p.Util))
-			cw.Write(row)
+			cw.Write(csvSafeRow(row))
 		}
 	}
 }

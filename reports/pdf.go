@@ -8,9 +8,11 @@ import (
 	"math"
 	"strings"
 	"time"
+	"unicode/utf8"
 
 	"github.com/jung-kurt/gofpdf"
 
+	"rfstress/circuits"
 	"rfstress/ratings"
 	"rfstress/stress"
 )
@@ -149,7 +151,7 @@ func reportSubject(b *stress.Bank) string {
 	}
 	var files []string
 	for _, s := range b.Sections {
-		files = append(files, s.File)
+		files = append(files, Headline(s.File))
 	}
 	return "stress audit of " + strings.Join(files, ", ")
 }
@@ -204,7 +206,7 @@ func (p *pdfw) footer() {
 func clean(s string) string {
 	ok := true
 	for _, r := range s {
-		if r > 0xFFFF || (r < 0x20 && r != '\n') || (r >= 0x7F && r < 0xA0) {
+		if r > 0xFFFF || r == utf8.RuneError || (r < 0x20 && r != '\n') || (r >= 0x7F && r < 0xA0) || circuits.Escape(string(r)) != string(r) {
 			ok = false
 			break
 		}
@@ -212,18 +214,20 @@ func clean(s string) string {
 	if ok {
 		return s
 	}
-	var b strings.Builder
-	for _, r := range s {
-		switch {
-		case r > 0xFFFF:
-			b.WriteRune('\uFFFD')
-		case r < 0x20 && r != '\n', r >= 0x7F && r < 0xA0:
-			b.WriteRune(' ')
-		default:
+	// control characters (C0, C1, bidi) become visible escapes, as in
+	// the text output; the fonts have no glyphs above the BMP
+	lines := strings.Split(s, "\n")
+	for i, l := range lines {
+		var b strings.Builder
+		for _, r := range circuits.Escape(l) {
+			if r > 0xFFFF {
+				r = '\uFFFD'
+			}
 			b.WriteRune(r)
 		}
+		lines[i] = b.String()
 	}
-	return b.String()
+	return strings.Join(lines, "\n")
 }
 
 // cell writes one line of text in a box w wide; ln as in CellFormat.

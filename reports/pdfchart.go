@@ -66,7 +66,7 @@ func (p *pdfw) marginChart() {
 					u := pr.Name + " " + QuantityLabel(q) + " " + FormatQ(q, st.Value) + " — no rating: needs " +
 						strings.TrimPrefix(UpgradeText(stress.Upgrade{Stress: st}), "rated ") + " (" + st.Limit.Basis + ")"
 					if multi {
-						u = s.File + ": " + u
+						u = Headline(s.File) + ": " + u
 					}
 					unrated = append(unrated, u)
 				}
@@ -78,7 +78,7 @@ func (p *pdfw) marginChart() {
 		anyBar = true
 		title := ""
 		if multi {
-			title = s.File
+			title = Headline(s.File)
 		}
 		p.barGroup(title, bars)
 	}

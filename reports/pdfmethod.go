@@ -6,6 +6,7 @@ import (
 	"strings"
 	"unicode/utf8"
 
+	"rfstress/circuits"
 	"rfstress/ratings"
 )
 
@@ -108,7 +109,7 @@ func (p *pdfw) listings() {
 	const lh = 3.0
 	const numW = 9.0
 	for _, s := range p.doc.Bank.Sections {
-		p.sub(s.File, 12)
+		p.sub(Headline(s.File), 12)
 		p.mono(6.3)
 		p.text(colMuted)
 		f.SetX(marginL)
@@ -131,9 +132,15 @@ func (p *pdfw) listings() {
 			lines = lines[:len(lines)-1]
 		}
 		for i, raw := range lines {
-			text := expandTabs(raw)
+			text := circuits.Escape(expandTabs(raw))
 			comment := strings.HasPrefix(strings.TrimSpace(text), "#")
 			parts := wrapRunes(text, perLine)
+			if len(parts) > listingMaxRows {
+				// a line of many kilobytes would fill pages; its hash above
+				// still identifies the file exactly
+				rest := utf8.RuneCountInString(text) - (listingMaxRows-1)*perLine
+				parts = append(parts[:listingMaxRows-1], fmt.Sprintf("… %d more characters not shown", rest))
+			}
 			for j, part := range parts {
 				p.room(lh)
 				y := f.GetY()
@@ -155,6 +162,9 @@ func (p *pdfw) listings() {
 		f.Ln(3)
 	}
 }
+
+// listingMaxRows is the most rows one source line takes in the listing.
+const listingMaxRows = 8
 
 // expandTabs replaces tabs with spaces to the next multiple of eight.
 func expandTabs(s string) string {

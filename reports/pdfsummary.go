@@ -108,7 +108,7 @@ func (p *pdfw) caution() {
 			more++
 			continue
 		}
-		h := fmt.Sprintf("%s peak at node %s of %s", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, s.File)
+		h := fmt.Sprintf("%s peak at node %s of %s", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, Headline(s.File))
 		if c := caseText(s, s.MaxNodeCase); c != "" {
 			h += " (" + c + ")"
 		}
@@ -181,7 +181,7 @@ func (p *pdfw) fileColumn(total float64) float64 {
 	p.font("B", 8.5)
 	w := 18.0
 	for _, s := range p.doc.Bank.Sections {
-		w = math.Max(w, p.width(s.File)+2*cellPad+1)
+		w = math.Max(w, p.width(Headline(s.File))+2*cellPad+1)
 	}
 	w = math.Min(w, bodyW*0.32)
 	return total * w / (bodyW - w)
@@ -200,7 +200,7 @@ func (p *pdfw) audited() {
 			lim = s.LimitPart + " " + QuantityLabel(s.LimitQ)
 		}
 		rows = append(rows, trow{
-			cells:      []tcell{{s: s.File, bold: true}, tc(s.Title), tv(s.Verdict), tc(FormatPower(s.SafeW)), tc(lim)},
+			cells:      []tcell{{s: Headline(s.File), bold: true}, tc(Headline(s.Title)), tv(s.Verdict), tc(FormatPower(s.SafeW)), tc(lim)},
 			detail:     []string{"SHA-256 " + s.SHA256},
 			detailMono: true,
 		})
@@ -255,7 +255,7 @@ func (p *pdfw) conditions() {
 				}
 			}
 			own = append(own, fmt.Sprintf("%d cases (carrier × antenna-port load)", s.NumCases))
-			rows = append(rows, trow{cells: []tcell{{s: s.File, bold: true}, tc(strings.Join(own, "\n"))}})
+			rows = append(rows, trow{cells: []tcell{{s: Headline(s.File), bold: true}, tc(strings.Join(own, "\n"))}})
 		}
 		p.sub("Conditions of each file", 24)
 		p.table(widths([]string{"file", "conditions"}, []float64{p.fileColumn(80), 80}, "LL"), rows, 8)
@@ -306,7 +306,7 @@ func (p *pdfw) upgrades() {
 			if multi {
 				file := tcell{}
 				if i == 0 { // a file's rows form one group under its name
-					file = tc(s.File)
+					file = tc(Headline(s.File))
 				}
 				cells = append(cells, file)
 			}

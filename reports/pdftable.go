@@ -370,10 +370,7 @@ func share(x float64) string {
 // sectionPages is a netlist's response plot, part table, findings and
 // tolerance spread.
 func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
-	title := s.File
-	if s.Title != "" {
-		title += " — " + s.Title
-	}
+	title := heading(s.File, s.Title)
 	p.newPage(title)
 	p.text(colMuted)
 	for _, l := range ConditionsText(s.Conditions) {

@@ -76,9 +76,9 @@ func WriteSolveText(w io.Writer, v *SolveView) error {
 
 func heading(file, title string) string {
 	if title == "" {
-		return file
+		return Headline(file)
 	}
-	return file + " — " + title
+	return Headline(file) + " — " + Headline(title)
 }
 
 // num formats a plain number with fixed decimals; non-finite values show a dash.

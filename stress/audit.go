@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"sync/atomic"
 
 	"rfstress/circuits"
 	"rfstress/ratings"
@@ -105,6 +106,9 @@ type PartResult struct {
 // carrier they are laid out as matched, the SWR circle's phases, explicit
 // loads, then faults, and Case(i) decodes an index.
 type Engine struct {
+	// Progress, if set, counts carriers as the audit reaches them.
+	Progress *atomic.Int64
+
 	C            *circuits.Circuit
 	R            *ratings.Set
 	Cond         Conditions
@@ -336,6 +340,9 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 		w.hEMF[i] = emf * math.Sqrt(l)
 	}
 	for fi, f := range e.carriers {
+		if e.Progress != nil {
+			e.Progress.Add(1)
+		}
 		if err := w.sw.Fill(w.carr, f); err != nil {
 			return nw, err
 		}

@@ -7,6 +7,7 @@ package stress
 import (
 	"fmt"
 	"math"
+	"math/cmplx"
 	"sort"
 	"strconv"
 	"strings"
@@ -124,7 +125,10 @@ type Conditions struct {
 	Faults      []string
 	CarrierAlso []float64
 	Derate      string
-	Ambient     float64
+	// DerateAt is where a file's derate= names its profile (zero for the
+	// flag), so an unreadable profile is reported there.
+	DerateAt circuits.Pos
+	Ambient  float64
 	// KeyDown is the time at the mode's average power before the
 	// temperature is judged, s: 0 not set (the mode's own on-period, else
 	// steady state), +Inf steady state asked for.
@@ -153,7 +157,7 @@ func ParseKeyDown(v string) (float64, error) {
 	}
 	d, err := time.ParseDuration(v)
 	if err != nil || d <= 0 {
-		return 0, fmt.Errorf("bad key-down time %q", v)
+		return 0, fmt.Errorf("bad key-down time %s", circuits.Quote(v))
 	}
 	return d.Seconds(), nil
 }
@@ -187,9 +191,25 @@ func (s Setting) where() string {
 func settingError(s Setting, want, format string, args ...any) error {
 	msg := fmt.Sprintf(format, args...)
 	if s.Flag {
-		return fmt.Errorf("--%s %s: %s (%s)", s.Key, s.Value, msg, want)
+		return fmt.Errorf("--%s %s: %s (%s)", s.Key, circuits.Clip(s.Value), circuits.Escape(msg), want)
 	}
-	return &circuits.Error{Pos: s.Pos, Msg: "audit " + s.Key + "=" + s.Value + ": " + msg, Want: want}
+	return &circuits.Error{Pos: s.Pos, Msg: "audit " + s.Key + "=" + circuits.Clip(s.Value) + ": " + msg, Want: want}
+}
+
+// Accepted ranges of the settings that reach the solver. Beyond them the
+// numbers overflow or lose meaning (1e308 W, 1e308 Hz); every real
+// station sits far inside.
+var (
+	PowerRange = circuits.Range{Lo: 1e-3, Hi: 10e6, Unit: "W"}
+	LoadRange  = circuits.Range{Lo: 0, Hi: 1e9, Unit: "Ω"}
+)
+
+// inRange is the error for a setting outside r, or nil.
+func inRange(s Setting, what string, v float64, r circuits.Range) error {
+	if r.Holds(v) {
+		return nil
+	}
+	return settingError(s, "accepted range "+r.Text(), "%s is outside the range a solve can trust", what)
 }
 
 // FileSettings returns the audit settings written in a netlist, in order.
@@ -208,6 +228,22 @@ func FileSettings(nl *circuits.Netlist) []Setting {
 // list settings (load, carrier-also), where the file's lists add up and a
 // command-line list replaces them. Every bad setting is reported.
 func (c *Conditions) Apply(settings []Setting) error {
+	fileErrs, flagErrs := c.ApplyAll(settings)
+	var errs []string
+	for _, e := range fileErrs {
+		errs = append(errs, e.Error())
+	}
+	errs = append(errs, flagErrs...)
+	if len(errs) > 0 {
+		return fmt.Errorf("%s", strings.Join(errs, "\n"))
+	}
+	return nil
+}
+
+// ApplyAll is Apply with the errors kept apart: those of a file's audit
+// lines, sorted by position (to merge with the file's other errors), and
+// those of flags, in order.
+func (c *Conditions) ApplyAll(settings []Setting) (circuits.ErrorList, []string) {
 	var errs []string
 	var cerrs circuits.ErrorList
 	flagSeen := map[string]bool{}
@@ -225,16 +261,8 @@ func (c *Conditions) Apply(settings []Setting) error {
 			c.AvgRatio = m.AvgRatio
 		}
 	}
-	if len(cerrs) > 0 {
-		cerrs.Sort()
-		for _, e := range cerrs {
-			errs = append(errs, e.Error())
-		}
-	}
-	if len(errs) > 0 {
-		return fmt.Errorf("%s", strings.Join(errs, "\n"))
-	}
-	return nil
+	cerrs.Sort()
+	return cerrs, errs
 }
 
 // avgExplicit records that avg-ratio was set directly and wins over mode.
@@ -258,11 +286,14 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 		if !(x > 0) {
 			return settingError(s, "PEP in watts above zero", "power must be above zero")
 		}
+		if err := inRange(s, "power", x, PowerRange); err != nil {
+			return err
+		}
 		c.PowerW = x
 	case "mode":
 		m, ok := ModeByName(v)
 		if !ok {
-			return settingError(s, "one of "+modeNames(), "unknown mode %q", v)
+			return settingError(s, "one of "+modeNames(), "unknown mode %s", circuits.Quote(v))
 		}
 		c.Mode, c.AvgRatio = m.Name, m.AvgRatio
 		c.Duty = ratings.Duty{On: m.On, Period: m.Period}
@@ -284,7 +315,7 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 	case "drive":
 		d := strings.ToLower(v)
 		if d != "available" && d != "delivered" {
-			return settingError(s, "available or delivered", "unknown drive %q", v)
+			return settingError(s, "available or delivered", "unknown drive %s", circuits.Quote(v))
 		}
 		c.Drive = d
 	case "harmonics":
@@ -296,7 +327,7 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 		for _, part := range strings.Split(v, ",") {
 			x, err := strconv.ParseFloat(strings.TrimSuffix(strings.TrimSpace(part), "dBc"), 64)
 			if err != nil || math.IsNaN(x) || math.IsInf(x, 0) || x > 0 {
-				return settingError(s, "a preset (none, push-pull, single-ended, square) or dBc levels ≤ 0 for the 2nd, 3rd, … such as -30,-12,-40", "bad harmonic level %q", part)
+				return settingError(s, "a preset (none, push-pull, single-ended, square) or dBc levels ≤ 0 for the 2nd, 3rd, … such as -30,-12,-40", "bad harmonic level %s", circuits.Quote(part))
 			}
 			d = append(d, x)
 		}
@@ -304,7 +335,7 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 	case "harmonic-max":
 		n, err := strconv.Atoi(v)
 		if err != nil || n < 1 || n > 50 {
-			return settingError(s, "a whole number from 1 (carrier only) to 50", "bad highest harmonic %q", v)
+			return settingError(s, "a whole number from 1 (carrier only) to 50", "bad highest harmonic %s", circuits.Quote(v))
 		}
 		c.HarmonicMax = n
 	case "band":
@@ -315,7 +346,13 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 		l, err1 := circuits.ParseValue(lo, "Hz")
 		h, err2 := circuits.ParseValue(hi, "Hz")
 		if err1 != nil || err2 != nil || !(l > 0) || h < l {
-			return settingError(s, "a band lo:hi such as 10.1M:10.15M", "bad band")
+			return settingError(s, "a band lo:hi with 0 < lo ≤ hi, such as 10.1M:10.15M", "bad band")
+		}
+		if err := inRange(s, "band edge", l, circuits.FreqRange); err != nil {
+			return err
+		}
+		if err := inRange(s, "band edge", h, circuits.FreqRange); err != nil {
+			return err
 		}
 		c.BandLo, c.BandHi = l, h
 	case "freq":
@@ -326,11 +363,14 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 		if !(f > 0) {
 			return settingError(s, "a frequency above zero", "bad frequency")
 		}
+		if err := inRange(s, "frequency", f, circuits.FreqRange); err != nil {
+			return err
+		}
 		c.BandLo, c.BandHi, c.Points = f, f, 1
 	case "points":
 		n, err := strconv.Atoi(v)
 		if err != nil || n < 1 || n > 100000 {
-			return settingError(s, "a whole number from 1 to 100000", "bad number of carrier points %q", v)
+			return settingError(s, "a whole number from 1 to 100000", "bad number of carrier points %s", circuits.Quote(v))
 		}
 		c.Points = n
 	case "swr":
@@ -339,13 +379,13 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 			return err
 		}
 		if !(x >= 1) || x > 1000 {
-			return settingError(s, "SWR from 1 to 1000", "bad SWR %q", v)
+			return settingError(s, "SWR from 1 to 1000", "bad SWR %s", circuits.Quote(v))
 		}
 		c.SWR = x
 	case "phases":
 		n, err := strconv.Atoi(v)
 		if err != nil || n < 1 || n > 1000000 {
-			return settingError(s, "a whole number from 1 to 1000000", "bad number of phases %q", v)
+			return settingError(s, "a whole number from 1 to 1000000", "bad number of phases %s", circuits.Quote(v))
 		}
 		c.Phases = n
 	case "load":
@@ -356,7 +396,10 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 		for _, part := range strings.Split(v, ",") {
 			z, err := circuits.ParseComplex(part)
 			if err != nil || real(z) < 0 {
-				return settingError(s, "a passive impedance such as 12.5-j180", "bad load %q", part)
+				return settingError(s, "a passive impedance such as 12.5-j180", "bad load %s", circuits.Quote(part))
+			}
+			if err := inRange(s, "load magnitude", cmplx.Abs(z), LoadRange); err != nil {
+				return err
 			}
 			c.Loads = append(c.Loads, z)
 		}
@@ -369,7 +412,7 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 				fl = append(fl, p)
 			case "none", "":
 			default:
-				return settingError(s, "open, short, open,short or none", "unknown fault %q", part)
+				return settingError(s, "open, short, open,short or none", "unknown fault %s", circuits.Quote(part))
 			}
 		}
 		sort.Strings(fl)
@@ -382,12 +425,18 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 		for _, part := range strings.Split(v, ",") {
 			f, err := circuits.ParseValue(part, "Hz")
 			if err != nil || !(f > 0) {
-				return settingError(s, "frequencies such as 14.2M", "bad frequency %q", part)
+				return settingError(s, "frequencies such as 14.2M", "bad frequency %s", circuits.Quote(part))
+			}
+			if err := inRange(s, "frequency", f, circuits.FreqRange); err != nil {
+				return err
 			}
 			c.CarrierAlso = append(c.CarrierAlso, f)
 		}
 	case "derate":
-		c.Derate = v
+		if v == "" {
+			return settingError(s, "standard, strict, none or a profile file", "no profile named")
+		}
+		c.Derate, c.DerateAt = v, s.Pos
 	case "ambient":
 		x, err := num("C")
 		if err != nil {
@@ -398,7 +447,7 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 		}
 		c.Ambient = x
 	default:
-		return settingError(s, "a known audit setting", "unknown setting %q", s.Key)
+		return settingError(s, "a known audit setting", "unknown setting %s", circuits.Quote(s.Key))
 	}
 	return nil
 }

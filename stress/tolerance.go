@@ -5,7 +5,6 @@ import (
 	"math"
 	"math/rand/v2"
 	"runtime"
-	"sort"
 	"sync"
 	"sync/atomic"
 
@@ -82,19 +81,45 @@ func (e *Engine) Tolerance(opt TolOptions) (*Tolerance, error) {
 			tolQ[i] = v
 		}
 	}
-	vals := make([]float64, opt.Trials*n*nQ)
-	utils := make([]float64, opt.Trials*n*nQ)
+	// Statistics stream into fixed-memory sketches, one set per worker,
+	// merged at the end: memory does not grow with the number of trials.
+	type stats struct {
+		vals         []*Sketch // per part and quantity
+		overD, overR []int64
+		safe         *Sketch
+	}
+	newStats := func() *stats {
+		st := &stats{vals: make([]*Sketch, n*nQ), overD: make([]int64, n*nQ), overR: make([]int64, n*nQ), safe: NewSketch()}
+		for i := range st.vals {
+			st.vals[i] = NewSketch()
+		}
+		return st
+	}
+	perWorker := make([]*stats, workers)
 	has := make([]bool, n*nQ)
 	ratio := make([]float64, n*nQ)
-	safe := make([]float64, opt.Trials)
 	var next atomic.Int64
 	var firstErr error
 	var mu sync.Mutex
 	var wg sync.WaitGroup
+	fail := func(err error) {
+		mu.Lock()
+		if firstErr == nil {
+			firstErr = err
+		}
+		mu.Unlock()
+	}
 	for wk := 0; wk < workers; wk++ {
 		wg.Add(1)
-		go func(wk int) {
+		st := newStats()
+		perWorker[wk] = st
+		go func() {
 			defer wg.Done()
+			defer func() {
+				if r := recover(); r != nil {
+					fail(&InternalError{What: r})
+				}
+			}()
 			w := e.newWorkspace(e.C)
 			vf, qf := make([]float64, n), make([]float64, n)
 			for {
@@ -109,19 +134,22 @@ func (e *Engine) Tolerance(opt TolOptions) (*Tolerance, error) {
 				}
 				w.rebind(e.C.Scaled(vf, qf))
 				if _, err := e.run(w); err != nil {
-					mu.Lock()
-					if firstErr == nil {
-						firstErr = err
-					}
-					mu.Unlock()
+					fail(err)
 					return
 				}
-				safe[t] = e.trialSafe(w)
+				st.safe.Add(e.trialSafe(w))
 				for i := range w.acc {
 					a := &w.acc[i]
 					for q := 0; q < nQ; q++ {
-						vals[(t*n+i)*nQ+q] = a.val[q]
-						utils[(t*n+i)*nQ+q] = a.util[q]
+						k := i*nQ + q
+						st.vals[k].Add(a.val[q])
+						u := a.util[q]
+						if u > 1 {
+							st.overD[k]++
+						}
+						if r := w.lim[i].absRatio[q]; r > 0 && u > r {
+							st.overR[k]++
+						}
 					}
 					if t == 0 {
 						for q := 0; q < nQ; q++ {
@@ -134,42 +162,39 @@ func (e *Engine) Tolerance(opt TolOptions) (*Tolerance, error) {
 					opt.Done.Add(1)
 				}
 			}
-		}(wk)
+		}()
 	}
 	wg.Wait()
 	if firstErr != nil {
 		return nil, firstErr
 	}
+	all := newStats()
+	for _, st := range perWorker {
+		all.safe.Merge(st.safe)
+		for k := range all.vals {
+			all.vals[k].Merge(st.vals[k])
+			all.overD[k] += st.overD[k]
+			all.overR[k] += st.overR[k]
+		}
+	}
 	res := &Tolerance{Trials: opt.Trials, Seed: opt.Seed, Dist: opt.Dist}
-	col := make([]float64, opt.Trials)
 	for i, el := range e.C.Elements {
 		tp := TolPart{Name: el.Name}
 		for q := 0; q < nQ; q++ {
-			if !has[i*nQ+q] {
+			k := i*nQ + q
+			if !has[k] {
 				continue
 			}
-			tq := TolQuantity{Quantity: Quantities[q], Rated: ratio[i*nQ+q] > 0}
-			var overD, overR int
-			for t := 0; t < opt.Trials; t++ {
-				col[t] = vals[(t*n+i)*nQ+q]
-				u := utils[(t*n+i)*nQ+q]
-				if u > 1 {
-					overD++
-				}
-				if r := ratio[i*nQ+q]; r > 0 && u > r {
-					overR++
-				}
-			}
-			sort.Float64s(col)
-			tq.Median, tq.P99, tq.Max = quantile(col, 0.5), quantile(col, 0.99), col[len(col)-1]
-			tq.OverDerated = float64(overD) / float64(opt.Trials)
-			tq.OverRating = float64(overR) / float64(opt.Trials)
+			sk := all.vals[k]
+			tq := TolQuantity{Quantity: Quantities[q], Rated: ratio[k] > 0,
+				Median: sk.Quantile(0.5), P99: sk.Quantile(0.99), Max: sk.Max(),
+				OverDerated: float64(all.overD[k]) / float64(opt.Trials),
+				OverRating:  float64(all.overR[k]) / float64(opt.Trials)}
 			tp.Q = append(tp.Q, tq)
 		}
 		res.Parts = append(res.Parts, tp)
 	}
-	sort.Float64s(safe)
-	res.SafeP01, res.SafeMed = quantile(safe, 0.01), quantile(safe, 0.5)
+	res.SafeP01, res.SafeMed = all.safe.Quantile(0.01), all.safe.Quantile(0.5)
 	return res, nil
 }
 
@@ -191,7 +216,8 @@ func draw(rng *rand.Rand, dist string, t float64) float64 {
 }
 
 // quantile of sorted data by linear interpolation between order
-// statistics (the common "type 7" definition).
+// statistics (the common "type 7" definition); the exact reference the
+// sketch is tested against.
 func quantile(s []float64, p float64) float64 {
 	if len(s) == 0 {
 		return math.NaN()

@@ -1,10 +1,11 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
-	"os"
 	"strings"
+	"time"
 
 	"github.com/spf13/pflag"
 
@@ -65,14 +66,6 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		return exitOK, err
 	}
 	files := fs.Args()
-	// every file read is an input the outputs must never overwrite
-	inputs := append([]string{}, files...)
-	if *materials != "" {
-		inputs = append(inputs, *materials)
-	}
-	if d, ok := vals["derate"]; ok && *d != "" {
-		inputs = append(inputs, *d)
-	}
 	if len(files) == 0 {
 		return exitUsage, usagef("audit needs at least one netlist file, or - for stdin (see rfstress audit --help)")
 	}
@@ -95,13 +88,33 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	if *retune && tol.trials != 0 {
 		return exitUsage, usagef("--retune and --trials are not combined yet: run the tolerance analysis at the nominal settings without --retune")
 	}
-	if *retune && *tf.loads != "" && !strings.HasPrefix(*tf.loads, "swr=") {
-		inputs = append(inputs, *tf.loads)
-	}
-	retuned := 0
 	threshold, err := failLevel(*failOn)
 	if err != nil {
 		return exitUsage, err
+	}
+	if err := checkNumber("caution-volts", *caution, cautionRange); err != nil {
+		return exitUsage, err
+	}
+	if err := tol.check(); err != nil {
+		return exitUsage, err
+	}
+	for _, o := range [][2]string{{"--report", *reportPath}, {"--schematic", *schemPath}} {
+		if o[1] == "-" {
+			return exitUsage, usagef("%s needs a file path", o[0])
+		}
+	}
+	var date time.Time
+	if *reportPath != "" {
+		if date, err = reportDate(); err != nil {
+			return exitUsage, err
+		}
+	}
+	if *jsonPath == "-" && *csvPath == "-" {
+		return exitUsage, usagef("--json - and --csv - cannot both write to stdout (send one of them to a file)")
+	}
+	outs := [][2]string{{"--json", *jsonPath}, {"--csv", *csvPath}, {"--report", *reportPath}, {"--schematic", *schemPath}}
+	if _, err := planOutputs(outs, nil); err != nil {
+		return exitUsage, err // two outputs on one path: refused before any work
 	}
 	var flagSettings []stress.Setting
 	fs.Visit(func(f *pflag.Flag) {
@@ -115,11 +128,27 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	for _, f := range *also {
 		flagSettings = append(flagSettings, stress.Setting{Key: "carrier-also", Value: f, Flag: true})
 	}
+	// flags are read once, so a bad flag is reported once, not per file
+	probe := stress.Defaults()
+	if _, ferrs := probe.ApplyAll(flagSettings); len(ferrs) > 0 {
+		return exitUsage, usagef("%s", strings.Join(ferrs, "\n"))
+	}
+	// every file read is an input the outputs must never overwrite
+	var inputs []string
+	for _, f := range files {
+		if f != "-" {
+			inputs = append(inputs, f)
+		}
+	}
+	if *retune && *tf.loads != "" && !strings.HasPrefix(*tf.loads, "swr=") {
+		inputs = append(inputs, *tf.loads)
+	}
 	mats := ratings.Builtin()
 	if *materials != "" {
-		src, err := os.ReadFile(*materials)
+		inputs = append(inputs, *materials)
+		src, err := readText("materials")(*materials)
 		if err != nil {
-			return exitUsage, usagef("cannot read materials: %v", err)
+			return exitUsage, err
 		}
 		extra, err := ratings.LoadMaterials(*materials, src)
 		if err != nil {
@@ -130,55 +159,44 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 	}
 
-	var sections []*stress.Section
-	var engines []*stress.Engine
+	var jobs []*auditJob
 	var inputErrs []string
 	for _, file := range files {
-		nl, c, err := loadNetlist(file)
-		if err != nil {
-			inputErrs = append(inputErrs, err.Error())
+		job, read, errs := prepareAudit(file, flagSettings, mats)
+		inputs = append(inputs, read...)
+		if len(errs) > 0 {
+			inputErrs = append(inputErrs, errs...)
 			continue
 		}
-		cond := stress.Defaults()
-		if err := cond.Apply(append(stress.FileSettings(nl), flagSettings...)); err != nil {
-			inputErrs = append(inputErrs, err.Error())
-			continue
-		}
-		if err := cond.Check(); err != nil {
-			inputErrs = append(inputErrs, file+": "+err.Error())
-			continue
-		}
-		prof, err := ratings.LoadProfile(cond.Derate, os.ReadFile)
-		if err != nil {
-			inputErrs = append(inputErrs, err.Error())
-			continue
-		}
-		rs, err := ratings.Prepare(nl, mats, prof)
-		if err != nil {
-			inputErrs = append(inputErrs, err.Error())
-			continue
-		}
-		if *retune && len(tuning.Vars(c)) > 0 {
-			sec, err := retuneFile(c, rs, cond, *allowUnrated, tf, policy)
+		job.eng.AllowUnrated = *allowUnrated
+		jobs = append(jobs, job)
+	}
+	if len(inputErrs) > 0 {
+		return exitUsage, usageError{fmt.Errorf("%s", strings.Join(inputErrs, "\n"))}
+	}
+	targets, err := planOutputs(outs, inputs)
+	if err != nil {
+		return exitUsage, err
+	}
+
+	var sections []*stress.Section
+	var engines []*stress.Engine
+	retuned := 0
+	for _, job := range jobs {
+		eng := job.eng
+		if *retune && len(tuning.Vars(job.c)) > 0 {
+			sec, err := retuneFile(job.c, job.rs, job.cond, *allowUnrated, tf, policy)
 			if err != nil {
-				inputErrs = append(inputErrs, file+": "+err.Error())
-				continue
+				return exitUsage, usagef("%s: %v", circuits.Escape(job.name), err)
 			}
 			retuned++
 			sections = append(sections, sec)
 			engines = append(engines, sec.Engine)
 			continue
 		}
-		eng, err := stress.NewEngine(c, rs, cond)
+		sec, err := auditWithProgress(eng, tol.quiet, stderr)
 		if err != nil {
-			inputErrs = append(inputErrs, file+": "+err.Error())
-			continue
-		}
-		eng.AllowUnrated = *allowUnrated
-		sec, err := eng.Audit()
-		if err != nil {
-			inputErrs = append(inputErrs, file+": "+err.Error())
-			continue
+			return exitUsage, usagef("%s: %v", circuits.Escape(job.name), err)
 		}
 		if tol.trials != 0 {
 			tr, err := runTolerance(eng, sec, tol, stderr)
@@ -190,48 +208,29 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		sections = append(sections, sec)
 		engines = append(engines, eng)
 	}
-	if len(inputErrs) > 0 {
-		return exitUsage, usageError{fmt.Errorf("%s", strings.Join(inputErrs, "\n"))}
-	}
 	if *retune && retuned == 0 {
 		return exitUsage, usagef("--retune: no file has a variable part (give a capacitor or inductor range=lo:hi)")
 	}
 	bank := stress.NewBank(sections)
 
 	wroteStdout := false
-	if *jsonPath == "-" && *csvPath == "-" {
-		return exitUsage, usagef("--json - and --csv - cannot both write to stdout (send one of them to a file)")
-	}
-	if *jsonPath != "" {
-		if err := writeTo(*jsonPath, stdout, inputs, func(w io.Writer) error {
-			return reports.WriteAuditJSON(w, reports.AuditJSON(bank))
-		}); err != nil {
+	for _, t := range targets {
+		var fn func(io.Writer) error
+		switch t.flag {
+		case "--json":
+			fn = func(w io.Writer) error { return reports.WriteAuditJSON(w, reports.AuditJSON(bank)) }
+		case "--csv":
+			fn = func(w io.Writer) error { return reports.WriteAuditCSV(w, bank) }
+		case "--report":
+			doc := buildReportDoc(bank, engines, *caution, date)
+			fn = func(w io.Writer) error { return writePDF(w, doc) }
+		case "--schematic":
+			fn = func(w io.Writer) error { return reports.WriteSchematicSVG(w, bank) }
+		}
+		if err := t.write(stdout, fn); err != nil {
 			return exitUsage, err
 		}
-		wroteStdout = wroteStdout || *jsonPath == "-"
-	}
-	if *csvPath != "" {
-		if err := writeTo(*csvPath, stdout, inputs, func(w io.Writer) error { return reports.WriteAuditCSV(w, bank) }); err != nil {
-			return exitUsage, err
-		}
-		wroteStdout = wroteStdout || *csvPath == "-"
-	}
-	if *reportPath != "" {
-		if *reportPath == "-" {
-			return exitUsage, usagef("--report needs a file path")
-		}
-		doc := buildReportDoc(bank, engines, *caution)
-		if err := writeTo(*reportPath, stdout, inputs, func(w io.Writer) error { return writePDF(w, doc) }); err != nil {
-			return exitUsage, err
-		}
-	}
-	if *schemPath != "" {
-		if *schemPath == "-" {
-			return exitUsage, usagef("--schematic needs a file path")
-		}
-		if err := writeTo(*schemPath, stdout, inputs, func(w io.Writer) error { return reports.WriteSchematicSVG(w, bank) }); err != nil {
-			return exitUsage, err
-		}
+		wroteStdout = wroteStdout || t.path == "-"
 	}
 	if !wroteStdout {
 		if err := reports.WriteAuditTextWidth(stdout, bank, *caution, textWidth(stdout)); err != nil {
@@ -246,13 +245,13 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 			}
 		}
 		if *reportPath != "" {
-			fmt.Fprintf(stdout, "  report written to %s\n", *reportPath)
+			fmt.Fprintf(stdout, "  report written to %s\n", circuits.Escape(*reportPath))
 		}
 	} else {
 		for _, s := range bank.Sections {
 			if s.MaxNodeVpk >= *caution {
 				fmt.Fprintf(stderr, "rfstress: CAUTION: %s peak RF at %s node %s; never touch or adjust while transmitting (SAFETY.md)\n",
-					circuits.FormatSI(s.MaxNodeVpk, "V"), s.File, s.MaxNodeAt)
+					circuits.FormatSI(s.MaxNodeVpk, "V"), circuits.Escape(s.File), s.MaxNodeAt)
 			}
 		}
 	}
@@ -260,6 +259,103 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		return exitOver, nil
 	}
 	return exitOK, nil
+}
+
+// cautionRange bounds --caution-volts: a NaN would silence the caution.
+var cautionRange = circuits.Range{Lo: 0, Hi: 100e6, Unit: "V"}
+
+// prepareAudit reads one netlist with its conditions, profile and
+// ratings. It returns every input error of the file together: the
+// parser's and those of its audit lines, merged in line order, and it
+// lists the files it read besides the netlist (measured data, a profile).
+func prepareAudit(file string, flagSettings []stress.Setting, mats map[string]*ratings.Material) (*auditJob, []string, []string) {
+	name, src, err := readNetlistSource(file)
+	if err != nil {
+		return nil, nil, []string{err.Error()}
+	}
+	nl, perr := circuits.Parse(name, src)
+	var errs circuits.ErrorList
+	if perr != nil {
+		el, ok := perr.(circuits.ErrorList)
+		if !ok || nl == nil {
+			return nil, nil, []string{perr.Error()}
+		}
+		errs = el
+	}
+	cond := stress.Defaults()
+	ferrs, _ := cond.ApplyAll(append(stress.FileSettings(nl), flagSettings...))
+	errs = append(errs, ferrs...)
+	if len(errs) > 0 {
+		errs.Sort()
+		return nil, nil, []string{errs.Error()}
+	}
+	read := measuredFiles(nl)
+	if err := circuits.LoadMeasured(nl, readMeasured); err != nil {
+		return nil, read, []string{err.Error()}
+	}
+	c, err := circuits.Build(nl)
+	if err != nil {
+		return nil, read, []string{err.Error()}
+	}
+	if err := cond.Check(); err != nil {
+		return nil, read, []string{circuits.Escape(name) + ": " + err.Error()}
+	}
+	if ratings.BuiltinProfile(cond.Derate) == nil {
+		read = append(read, cond.Derate)
+	}
+	prof, err := ratings.LoadProfile(cond.Derate, readText("derating profile"))
+	if err != nil {
+		if _, isList := err.(circuits.ErrorList); !isList {
+			msg := fmt.Sprintf("derating profile %s is neither built in (%s) nor a readable file: %v",
+				circuits.Quote(cond.Derate), strings.Join(ratings.ProfileNames, ", "), errors.Unwrap(err))
+			if cond.DerateAt.File != "" {
+				return nil, read, []string{(&circuits.Error{Pos: cond.DerateAt, Msg: "derate=" + circuits.Clip(cond.Derate) + ": " + msg}).Error()}
+			}
+			return nil, read, []string{"--derate: " + msg}
+		}
+		return nil, read, []string{err.Error()}
+	}
+	rs, err := ratings.Prepare(nl, mats, prof)
+	if err != nil {
+		return nil, read, []string{err.Error()}
+	}
+	eng, err := stress.NewEngine(c, rs, cond)
+	if err != nil {
+		return nil, read, []string{circuits.Escape(name) + ": " + err.Error()}
+	}
+	return &auditJob{name: name, c: c, rs: rs, cond: cond, eng: eng}, read, nil
+}
+
+// auditJob is one file read and checked, ready to audit.
+type auditJob struct {
+	name string
+	c    *circuits.Circuit
+	rs   *ratings.Set
+	cond stress.Conditions
+	eng  *stress.Engine
+}
+
+// retuneFile tunes a file's variable parts for every load and audits each
+// match. The load set is --loads, else the file's own SWR circle (as a
+// region: centre and rings) and explicit loads.
+func retuneFile(c *circuits.Circuit, rs *ratings.Set, cond stress.Conditions, allowUnrated bool, tf *tuneFlags, policy tuning.Policy) (*stress.Section, error) {
+	m, err := tuning.NewMatcher(c, *tf.swr, policy)
+	if err != nil {
+		return nil, err
+	}
+	var ls *tuning.LoadSet
+	if *tf.loads != "" {
+		if ls, err = tuning.ParseLoads(*tf.loads, c.Zout, readText("load file")); err != nil {
+			return nil, err
+		}
+	} else {
+		ls = tuning.Region(c.Zout, cond.SWR)
+		ls.Source = fmt.Sprintf("port out's z, the file's SWR %g region and loads", cond.SWR)
+		for _, z := range cond.Loads {
+			ls.Points = append(ls.Points, tuning.LoadPoint{Z: z})
+		}
+	}
+	return stress.RetuneAudit(c, rs, cond, allowUnrated, ls, m, *tf.workers)
 }
 
 func failLevel(s string) (int, error) {
@@ -274,39 +370,4 @@ func failLevel(s string) (int, error) {
 		return -1, nil
 	}
 	return 0, usagef("--fail-on %s: expected unrated, marginal, fail or never", s)
-}
-
-// writeTo writes through fn to PATH atomically, or to stdout for "-".
-func writeTo(path string, stdout io.Writer, inputs []string, fn func(io.Writer) error) error {
-	out, err := openOutput(path, stdout, inputs)
-	if err != nil {
-		return err
-	}
-	if err := fn(out); err != nil {
-		return err
-	}
-	return out.Close()
-}
-
-// retuneFile tunes a file's variable parts for every load and audits each
-// match. The load set is --loads, else the file's own SWR circle (as a
-// region: centre and rings) and explicit loads.
-func retuneFile(c *circuits.Circuit, rs *ratings.Set, cond stress.Conditions, allowUnrated bool, tf *tuneFlags, policy tuning.Policy) (*stress.Section, error) {
-	m, err := tuning.NewMatcher(c, *tf.swr, policy)
-	if err != nil {
-		return nil, err
-	}
-	var ls *tuning.LoadSet
-	if *tf.loads != "" {
-		if ls, err = tuning.ParseLoads(*tf.loads, c.Zout, os.ReadFile); err != nil {
-			return nil, err
-		}
-	} else {
-		ls = tuning.Region(c.Zout, cond.SWR)
-		ls.Source = fmt.Sprintf("port out's z, the file's SWR %g region and loads", cond.SWR)
-		for _, z := range cond.Loads {
-			ls.Points = append(ls.Points, tuning.LoadPoint{Z: z})
-		}
-	}
-	return stress.RetuneAudit(c, rs, cond, allowUnrated, ls, m, *tf.workers)
 }

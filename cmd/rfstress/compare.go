@@ -129,8 +129,12 @@ func runCompare(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 	}
 	if *reportPath != "" {
+		date, err := reportDate()
+		if err != nil {
+			return exitUsage, err
+		}
 		if err := writeTo(*reportPath, stdout, inputs, func(w io.Writer) error {
-			return reports.WriteComparePDF(w, v, "rfstress "+Version, reportDate())
+			return reports.WriteComparePDF(w, v, "rfstress "+Version, date)
 		}); err != nil {
 			return exitUsage, usageError{err}
 		}
@@ -154,8 +158,9 @@ func sortSettings(s []stress.Setting) {
 	}
 }
 
-// checkNotInput refuses an output path that names an input.
+// checkNotInput refuses an output path that names an input (symlinks and
+// hard links resolved) or that cannot be written.
 func checkNotInput(path string, inputs []string) error {
-	_, err := openOutput(path, io.Discard, inputs)
+	_, err := planOutputs([][2]string{{"output", path}}, inputs)
 	return err
 }

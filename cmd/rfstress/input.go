@@ -1,11 +1,11 @@
 package main
 
 import (
-	"bytes"
 	"fmt"
 	"io"
+	"math"
 	"os"
-	"path/filepath"
+	"strconv"
 
 	"rfstress/circuits"
 )
@@ -16,23 +16,29 @@ var stdin io.Reader = os.Stdin
 // stdinName is how a netlist read from stdin is named in messages.
 const stdinName = "stdin"
 
+// readNetlistSource reads a netlist file ("-": stdin, named stdinName),
+// refusing anything over MaxInput.
+func readNetlistSource(path string) (string, []byte, error) {
+	if path != "-" {
+		src, err := readInput("netlist", path)
+		return path, src, err
+	}
+	src, err := io.ReadAll(io.LimitReader(stdin, MaxInput+1))
+	if err == nil && len(src) > MaxInput {
+		err = fmt.Errorf("larger than %d MiB", MaxInput>>20)
+	}
+	if err != nil {
+		return stdinName, nil, usagef("cannot read netlist %s: %v", stdinName, err)
+	}
+	return stdinName, src, nil
+}
+
 // loadNetlist reads and parses one netlist file ("-": stdin); input
 // errors exit 2.
 func loadNetlist(path string) (*circuits.Netlist, *circuits.Circuit, error) {
-	var src []byte
-	var err error
-	name := path
-	if path == "-" {
-		name = stdinName
-		src, err = io.ReadAll(io.LimitReader(stdin, maxNetlistBytes+1))
-		if err == nil && len(src) > maxNetlistBytes {
-			err = fmt.Errorf("larger than %d MiB", maxNetlistBytes>>20)
-		}
-	} else {
-		src, err = os.ReadFile(path)
-	}
+	name, src, err := readNetlistSource(path)
 	if err != nil {
-		return nil, nil, usagef("cannot read netlist %s: %v", name, err)
+		return nil, nil, err
 	}
 	nl, err := circuits.Parse(name, src)
 	if err != nil {
@@ -48,79 +54,46 @@ func loadNetlist(path string) (*circuits.Netlist, *circuits.Circuit, error) {
 	return nl, c, nil
 }
 
-// maxNetlistBytes bounds a netlist read from a pipe.
-const maxNetlistBytes = 16 << 20
+// measuredFiles lists the measured-data files a netlist names: inputs
+// that no output may overwrite.
+func measuredFiles(nl *circuits.Netlist) []string {
+	var out []string
+	for _, r := range nl.MeasuredRefs() {
+		out = append(out, r.Path)
+	}
+	return out
+}
+
+// netlistInputs is the netlist and every file it names.
+func netlistInputs(path string, nl *circuits.Netlist) []string {
+	var in []string
+	if path != "-" {
+		in = append(in, path)
+	}
+	if nl != nil {
+		in = append(in, measuredFiles(nl)...)
+	}
+	return in
+}
 
 func parseFreq(flag, s string) (float64, error) {
 	v, err := circuits.ParseValue(s, "Hz")
 	if err != nil {
-		return 0, usagef("--%s %s: %v (a frequency such as 10.1M)", flag, s, err)
+		return 0, usagef("--%s %s: %v (a frequency such as 10.1M)", flag, circuits.Clip(s), err)
 	}
 	if v <= 0 {
-		return 0, usagef("--%s %s: frequency must be above zero", flag, s)
+		return 0, usagef("--%s %s: frequency must be above zero", flag, circuits.Clip(s))
+	}
+	if !circuits.FreqRange.Holds(v) {
+		return 0, usagef("--%s %s: outside the range a solve can trust (accepted range %s)", flag, circuits.Clip(s), circuits.FreqRange.Text())
 	}
 	return v, nil
 }
 
-// output opens PATH for writing, or stdout for "-". Files are written to a
-// temporary name and renamed on Close so a failed run leaves no half file;
-// inputs are never overwritten.
-type output struct {
-	w    io.Writer
-	f    *os.File
-	path string
-	buf  bytes.Buffer
-}
-
-func openOutput(path string, stdout io.Writer, inputs []string) (*output, error) {
-	if path == "-" {
-		return &output{w: stdout}, nil
-	}
-	abs, _ := filepath.Abs(path)
-	for _, in := range inputs {
-		ai, _ := filepath.Abs(in)
-		if ai == abs {
-			return nil, usagef("refusing to overwrite input file %s", path)
-		}
-	}
-	o := &output{path: path}
-	o.w = &o.buf
-	return o, nil
-}
-
-func (o *output) Write(p []byte) (int, error) { return o.w.Write(p) }
-
-// Close writes the buffered bytes atomically.
-func (o *output) Close() error {
-	if o.path == "" {
-		return nil
-	}
-	return writeAtomic(o.path, o.buf.Bytes())
-}
-
-func writeAtomic(path string, data []byte) error {
-	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, ".rfstress-*")
-	if err != nil {
-		return fmt.Errorf("cannot write %s: %v", path, err)
-	}
-	name := tmp.Name()
-	if _, err := tmp.Write(data); err != nil {
-		tmp.Close()
-		os.Remove(name)
-		return fmt.Errorf("cannot write %s: %v", path, err)
-	}
-	if err := tmp.Close(); err != nil {
-		os.Remove(name)
-		return fmt.Errorf("cannot write %s: %v", path, err)
-	}
-	if err := os.Chmod(name, 0o644); err != nil {
-		os.Remove(name)
-		return err
-	}
-	if err := os.Rename(name, path); err != nil {
-		os.Remove(name)
-		return fmt.Errorf("cannot write %s: %v", path, err)
+// checkNumber rejects a non-finite or out-of-range number given to a flag.
+func checkNumber(flag string, v float64, r circuits.Range) error {
+	if math.IsNaN(v) || math.IsInf(v, 0) || !r.Holds(v) {
+		return usagef("--%s %s: outside the accepted range %s", flag, strconv.FormatFloat(v, 'g', -1, 64), r.Text())
 	}
 	return nil
 }
@@ -141,4 +114,20 @@ func readMeasured(path string) ([]byte, error) {
 		return nil, fmt.Errorf("larger than %d MiB", circuits.MaxMeasuredBytes>>20)
 	}
 	return b, nil
+}
+
+// writeTo checks one output against the inputs and writes through fn:
+// atomically to a file, in place to a device or FIFO, or to stdout for
+// "-". Commands with several outputs plan them all first (planOutputs).
+func writeTo(path string, stdout io.Writer, inputs []string, fn func(io.Writer) error) error {
+	ts, err := planOutputs([][2]string{{"output", path}}, inputs)
+	if err != nil {
+		return err
+	}
+	for _, t := range ts {
+		if err := t.write(stdout, fn); err != nil {
+			return err
+		}
+	}
+	return nil
 }

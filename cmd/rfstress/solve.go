@@ -8,6 +8,7 @@ import (
 
 	"rfstress/circuits"
 	"rfstress/reports"
+	"rfstress/stress"
 )
 
 func init() {
@@ -25,10 +26,13 @@ func parseLoad(s string) (circuits.Load, string, error) {
 	}
 	z, err := circuits.ParseComplex(s)
 	if err != nil {
-		return circuits.Load{}, "", usagef("--load %s: %v (an impedance such as 50 or 12.5-j180, or open, or short)", s, err)
+		return circuits.Load{}, "", usagef("--load %s: %v (an impedance such as 50 or 12.5-j180, or open, or short)", circuits.Clip(s), err)
 	}
 	if real(z) < 0 {
-		return circuits.Load{}, "", usagef("--load %s: a passive load has no negative resistance", s)
+		return circuits.Load{}, "", usagef("--load %s: a passive load has no negative resistance", circuits.Clip(s))
+	}
+	if !stress.LoadRange.Holds(cmplx.Abs(z)) {
+		return circuits.Load{}, "", usagef("--load %s: outside the accepted range |z| %s", circuits.Clip(s), stress.LoadRange.Text())
 	}
 	return circuits.Load{Z: z}, circuits.FormatComplex(z), nil
 }
@@ -53,11 +57,18 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 	if err != nil {
 		return exitUsage, err
 	}
-	if !(*power > 0) || math.IsInf(*power, 0) {
-		return exitUsage, usagef("--power must be above zero watts")
+	if err := checkNumber("power", *power, stress.PowerRange); err != nil {
+		return exitUsage, err
 	}
 	file := fs.Arg(0)
+	if _, err := planOutputs([][2]string{{"--json", *jsonPath}}, nil); err != nil {
+		return exitUsage, err
+	}
 	nl, c, err := loadNetlist(file)
+	if err != nil {
+		return exitUsage, err
+	}
+	targets, err := planOutputs([][2]string{{"--json", *jsonPath}}, []string{file})
 	if err != nil {
 		return exitUsage, err
 	}
@@ -84,11 +95,11 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 		v.Components = append(v.Components, reports.SolvePart{Name: e.Name, Kind: string(e.Kind),
 			Vrms: cmplx.Abs(ps.V), Vpk: math.Sqrt2 * cmplx.Abs(ps.V), Irms: cmplx.Abs(ps.I), Pdiss: ps.Ploss})
 	}
-	if *jsonPath != "" {
-		if err := writeTo(*jsonPath, stdout, []string{file}, func(w io.Writer) error { return reports.WriteSolveJSON(w, v) }); err != nil {
+	for _, t := range targets {
+		if err := t.write(stdout, func(w io.Writer) error { return reports.WriteSolveJSON(w, v) }); err != nil {
 			return exitUsage, err
 		}
-		if *jsonPath == "-" {
+		if t.path == "-" {
 			return exitOK, nil
 		}
 	}
@@ -124,8 +135,19 @@ func runResponse(args []string, stdout, stderr io.Writer) (int, error) {
 	if *points < 1 || *points > 1000000 {
 		return exitUsage, usagef("--points must be between 1 and 1000000")
 	}
+	if *tsPath == "-" {
+		return exitUsage, usagef("--touchstone needs a file path")
+	}
+	outs := [][2]string{{"--touchstone", *tsPath}, {"--csv", *csvPath}}
+	if _, err := planOutputs(outs, nil); err != nil {
+		return exitUsage, err
+	}
 	file := fs.Arg(0)
 	nl, c, err := loadNetlist(file)
+	if err != nil {
+		return exitUsage, err
+	}
+	targets, err := planOutputs(outs, []string{file})
 	if err != nil {
 		return exitUsage, err
 	}
@@ -146,27 +168,22 @@ func runResponse(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 		v.Points = append(v.Points, sp)
 	}
-	wrote := false
-	if *tsPath != "" {
-		if *tsPath == "-" {
-			return exitUsage, usagef("--touchstone needs a file path")
+	wrote, toStdout := false, false
+	for _, t := range targets {
+		fn := func(w io.Writer) error { return reports.WriteTouchstone(w, v) }
+		if t.flag == "--csv" {
+			fn = func(w io.Writer) error { return reports.WriteSweepCSV(w, v) }
 		}
-		if err := writeTo(*tsPath, stdout, []string{file}, func(w io.Writer) error { return reports.WriteTouchstone(w, v) }); err != nil {
-			return exitUsage, usageError{err}
-		}
-		wrote = true
-	}
-	if *csvPath != "" {
-		if err := writeTo(*csvPath, stdout, []string{file}, func(w io.Writer) error { return reports.WriteSweepCSV(w, v) }); err != nil {
+		if err := t.write(stdout, fn); err != nil {
 			return exitUsage, err
 		}
-		if *csvPath == "-" {
-			return exitOK, nil
-		}
-		wrote = true
+		wrote, toStdout = true, toStdout || t.path == "-"
+	}
+	if toStdout {
+		return exitOK, nil
 	}
 	if wrote {
-		fmt.Fprintf(stdout, "%s: %d frequencies from %s to %s written\n", file, len(v.Points), circuits.FormatHz(f1), circuits.FormatHz(f2))
+		fmt.Fprintf(stdout, "%s: %d frequencies from %s to %s written\n", circuits.Escape(file), len(v.Points), circuits.FormatHz(f1), circuits.FormatHz(f2))
 		return exitOK, nil
 	}
 	return exitOK, reports.WriteSweepText(stdout, v)

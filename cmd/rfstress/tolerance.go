@@ -11,6 +11,7 @@ import (
 
 	"github.com/spf13/pflag"
 
+	"rfstress/circuits"
 	"rfstress/reports"
 	"rfstress/stress"
 )
@@ -40,56 +41,103 @@ func isTerminal(f *os.File) bool {
 	return err == nil && st.Mode()&os.ModeCharDevice != 0
 }
 
-func runTolerance(eng *stress.Engine, sec *stress.Section, t *tolFlags, stderr io.Writer) (*stress.Tolerance, error) {
+// check validates the tolerance flags before any work is done.
+func (t *tolFlags) check() error {
 	if t.trials < 0 || t.trials > 10_000_000 {
-		return nil, usagef("--trials must be between 1 and 10000000")
+		return usagef("--trials must be between 1 and 10000000")
 	}
 	if t.dist != "normal" && t.dist != "uniform" {
-		return nil, usagef("--dist %s: expected normal or uniform", t.dist)
+		return usagef("--dist %s: expected normal or uniform", circuits.Clip(t.dist))
 	}
-	var done atomic.Int64
-	opt := stress.TolOptions{Trials: t.trials, Seed: t.seed, Dist: t.dist, Workers: t.workers, Done: &done}
+	if t.workers < 0 || t.workers > 1024 {
+		return usagef("--workers must be between 0 (all cores) and 1024")
+	}
+	return nil
+}
+
+// progressDelay is how long work runs before a progress bar appears: a
+// quick run stays quiet.
+const progressDelay = time.Second
+
+// withProgress runs work while a bar on a terminal stderr shows done out
+// of total once work has run for progressDelay; never on a pipe or file.
+func withProgress(quiet bool, stderr io.Writer, name, unit string, total int, done *atomic.Int64, work func() error) error {
 	f, isFile := stderr.(*os.File)
-	show := !t.quiet && isFile && isTerminal(f)
+	if quiet || !isFile || !isTerminal(f) || total <= 0 {
+		return work()
+	}
 	stop := make(chan struct{})
 	finished := make(chan struct{})
-	if show {
-		go func() {
-			defer close(finished)
-			tick := time.NewTicker(100 * time.Millisecond)
-			defer tick.Stop()
-			for {
-				select {
-				case <-stop:
-					progress(stderr, sec.File, t.trials, t.trials)
+	go func() {
+		defer close(finished)
+		start := time.Now()
+		tick := time.NewTicker(100 * time.Millisecond)
+		defer tick.Stop()
+		shown := false
+		for {
+			select {
+			case <-stop:
+				if shown {
+					progress(stderr, name, unit, total, total)
 					fmt.Fprintln(stderr)
-					return
-				case <-tick.C:
-					progress(stderr, sec.File, int(done.Load()), t.trials)
+				}
+				return
+			case <-tick.C:
+				if time.Since(start) >= progressDelay {
+					shown = true
+					progress(stderr, name, unit, int(done.Load()), total)
 				}
 			}
-		}()
-	} else {
-		close(finished)
-	}
-	res, err := eng.Tolerance(opt)
+		}
+	}()
+	err := work()
 	close(stop)
 	<-finished
+	return err
+}
+
+func runTolerance(eng *stress.Engine, sec *stress.Section, t *tolFlags, stderr io.Writer) (*stress.Tolerance, error) {
+	var done atomic.Int64
+	opt := stress.TolOptions{Trials: t.trials, Seed: t.seed, Dist: t.dist, Workers: t.workers, Done: &done}
+	var res *stress.Tolerance
+	err := withProgress(t.quiet, stderr, sec.File, "trials", t.trials, &done, func() error {
+		var err error
+		res, err = eng.Tolerance(opt)
+		return err
+	})
 	if err != nil {
-		return nil, fmt.Errorf("%s: %v", sec.File, err)
+		return nil, fmt.Errorf("%s: %v", circuits.Escape(sec.File), err)
 	}
 	return res, nil
 }
 
-func progress(w io.Writer, name string, done, total int) {
+// auditWithProgress runs the audit of one file, with a bar counting
+// carriers when it takes more than about a second on a terminal.
+func auditWithProgress(eng *stress.Engine, quiet bool, stderr io.Writer) (*stress.Section, error) {
+	var done atomic.Int64
+	eng.Progress = &done
+	defer func() { eng.Progress = nil }()
+	var sec *stress.Section
+	err := withProgress(quiet, stderr, eng.C.NL.File, "carriers", len(eng.Cond.Carriers()), &done, func() error {
+		var err error
+		sec, err = eng.Audit()
+		return err
+	})
+	return sec, err
+}
+
+func progress(w io.Writer, name, unit string, done, total int) {
 	const width = 30
+	if done > total {
+		done = total
+	}
 	n := width * done / total
-	fmt.Fprintf(w, "\r%s [%s%s] %d/%d trials", name, strings.Repeat("#", n), strings.Repeat(".", width-n), done, total)
+	fmt.Fprintf(w, "\r%s [%s%s] %d/%d %s", circuits.Clip(name), strings.Repeat("#", n), strings.Repeat(".", width-n), done, total, unit)
 }
 
 // buildReportDoc gathers what the PDF shows; the report draws only.
-func buildReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64) *reports.ReportDoc {
-	doc := &reports.ReportDoc{Tool: "rfstress " + Version, Date: reportDate(), Bank: b, CautionV: cautionV}
+func buildReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64, date time.Time) *reports.ReportDoc {
+	doc := &reports.ReportDoc{Tool: "rfstress " + Version, Date: date, Bank: b, CautionV: cautionV}
 	for i, e := range engines {
 		s := b.Sections[i]
 		if s.Harmonics == nil {
@@ -102,12 +150,18 @@ func buildReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64) 
 }
 
 // reportDate honours SOURCE_DATE_EPOCH (reproducible-builds.org) so the
-// same inputs give the same report bytes.
-func reportDate() time.Time {
-	if s := os.Getenv("SOURCE_DATE_EPOCH"); s != "" {
-		if n, err := strconv.ParseInt(s, 10, 64); err == nil {
-			return time.Unix(n, 0).UTC()
-		}
+// same inputs give the same report bytes. The specification asks for a
+// whole, non-negative number of seconds since 1970; anything else is an
+// error rather than a silent "now", which would break reproducibility
+// without a word. Years past 9999 are refused too: no date format shows them.
+func reportDate() (time.Time, error) {
+	s, set := os.LookupEnv("SOURCE_DATE_EPOCH")
+	if !set {
+		return time.Now().UTC(), nil
 	}
-	return time.Now().UTC()
+	n, err := strconv.ParseInt(s, 10, 64)
+	if err != nil || n < 0 || n > 253402300799 || strings.TrimSpace(s) != s {
+		return time.Time{}, usagef("SOURCE_DATE_EPOCH=%s is not a whole number of seconds since 1970-01-01 UTC up to year 9999 (reproducible-builds.org); unset it or fix it", circuits.Clip(s))
+	}
+	return time.Unix(n, 0).UTC(), nil
 }
