@@ -24,4 +24,10 @@ type FilterPlot struct {
 	BandHi    float64
 	Harmonics []stress.HarmonicLine
 	Extra     []float64 // carrier-also frequencies
+	// stress against frequency: the audit one carrier at a time
+	Use *stress.BandUse
+	// the antenna-port loads audited at each carrier, and the resistance
+	// the load chart is drawn for (the transmitter port's)
+	Loads []stress.Case
+	R0    float64
 }

@@ -3,6 +3,7 @@ package reports
 import (
 	"bytes"
 	"encoding/xml"
+	"math"
 	"os/exec"
 	"strconv"
 	"strings"
@@ -284,4 +285,96 @@ func TestSchematicSVG(t *testing.T) {
 		}
 	}
 	_ = stress.Quantities
+}
+
+// TestReportLayout renders the example station's report and checks its
+// layout by the words' bounding boxes (pdftotext -bbox): no two words
+// overlap on any page; every response plot labels the decades it spans
+// ("10 MHz" and the like); verdict tags stay inside their column; no value
+// in the margin chart is cut short.
+func TestReportLayout(t *testing.T) {
+	doc := demoDoc(t, demoSources(t), 30)
+	words := bboxWords(t, render(t, doc))
+	if len(words) < 1000 {
+		t.Fatalf("pdftotext found only %d words", len(words))
+	}
+	if ov := overlaps(words, 0.3); len(ov) > 0 {
+		t.Errorf("overlapping words: %s", strings.Join(ov, "; "))
+	}
+	pages := map[int][]bboxWord{}
+	last := 0
+	for _, w := range words {
+		pages[w.page] = append(pages[w.page], w)
+		last = max(last, w.page)
+	}
+	has := func(pg int, s string) bool {
+		for _, w := range pages[pg] {
+			if w.text == s {
+				return true
+			}
+		}
+		return false
+	}
+	// response plots: the pages with the axis title, in section order
+	plot := 0
+	for pg := 1; pg <= last; pg++ {
+		if !has(pg, "(log") {
+			continue
+		}
+		if plot >= len(doc.Filters) {
+			break
+		}
+		fp := doc.Filters[plot]
+		plot++
+		lo, hi := fp.Sweep[0].F, fp.Sweep[len(fp.Sweep)-1].F
+		for d := 1e3; d <= 1e10; d *= 10 {
+			if d < lo || d > hi {
+				continue
+			}
+			num, unit := strings.Fields(compactSI(d, "Hz"))[0], strings.Fields(compactSI(d, "Hz"))[1]
+			found := false
+			for i, w := range pages[pg] {
+				if w.text == num && i+1 < len(pages[pg]) && pages[pg][i+1].text == unit {
+					found = true
+				}
+			}
+			if !found {
+				t.Errorf("page %d: response plot lacks its %s %s axis label", pg, num, unit)
+			}
+		}
+	}
+	if plot != len(doc.Filters) {
+		t.Errorf("found %d response plots, want %d", plot, len(doc.Filters))
+	}
+	// verdict tags inside the verdict column of "Parts to change"
+	for pg := 1; pg <= last; pg++ {
+		// the table's heading row: "verdict" and "rating" on one line
+		var right float64
+		for _, v := range pages[pg] {
+			for _, w := range pages[pg] {
+				if v.text == "verdict" && w.text == "rating" && math.Abs(v.yMin-w.yMin) < 0.5 && w.xMin > v.xMin && right == 0 {
+					right = w.xMin
+				}
+			}
+		}
+		if !has(pg, "change") || right == 0 {
+			continue
+		}
+		for _, w := range pages[pg] {
+			if (w.text == "MARGINAL" || w.text == "UNRATED") && w.xMax > right {
+				t.Errorf("page %d: %s tag runs into the next column (%.1f > %.1f pt)", pg, w.text, w.xMax, right)
+			}
+		}
+	}
+	// the margin chart's values are never cut short
+	for pg := 1; pg <= last; pg++ {
+		if !has(pg, "worst") || !has(pg, "limit") {
+			continue
+		}
+		for _, w := range pages[pg] {
+			if strings.HasSuffix(w.text, "…") && strings.Contains(w.text, "/") {
+				t.Errorf("page %d: value cut short: %q", pg, w.text)
+			}
+		}
+	}
 }

@@ -360,6 +360,26 @@ func (p *pdfw) pill(x, y, h float64, v ratings.Verdict) float64 {
 	return w
 }
 
+// pillFit draws a verdict tag no wider than maxW, shrinking its text when
+// the column is narrow.
+func (p *pdfw) pillFit(x, y, h float64, v ratings.Verdict, maxW float64) float64 {
+	word := strings.ToUpper(v.String())
+	size := h * 2.1
+	p.font("B", size)
+	for p.width(word)+h*0.9 > maxW && size > 4 {
+		size -= 0.25
+		p.font("B", size)
+	}
+	w := math.Min(p.width(word)+h*0.9, maxW)
+	f := p.f
+	p.fill(verdictColor(v))
+	f.RoundedRect(x, y, w, h, h*0.3, "1234", "F")
+	p.text(colWhite)
+	p.cellAt(x, y, w, h, word, "C")
+	p.text(colInk)
+	return w
+}
+
 // minus writes a number's sign as a typographic minus.
 func minus(s string) string {
 	if strings.HasPrefix(s, "-") {

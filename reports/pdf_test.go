@@ -104,8 +104,12 @@ func demoDoc(t *testing.T, srcs []netSrc, trials int) *ReportDoc {
 		}
 		sec.Harmonics = eng.HarmonicLines()
 		secs = append(secs, sec)
+		use, err := eng.BandUse(11)
+		if err != nil {
+			t.Fatal(err)
+		}
 		doc.Filters = append(doc.Filters, FilterPlot{Sweep: eng.Sweep(200), BandLo: cond.BandLo, BandHi: cond.BandHi,
-			Harmonics: sec.Harmonics, Extra: cond.CarrierAlso})
+			Harmonics: sec.Harmonics, Extra: cond.CarrierAlso, Use: use, Loads: eng.LoadSet(), R0: real(c.Zin)})
 	}
 	doc.Bank = stress.NewBank(secs)
 	return doc

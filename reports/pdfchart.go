@@ -2,6 +2,7 @@ package reports
 
 import (
 	"math"
+	"sort"
 	"strconv"
 	"strings"
 
@@ -241,9 +242,22 @@ func (p *pdfw) barRow(y float64, b bar) {
 	p.font("", 6.8)
 	p.text(colMuted)
 	vw := pageW - marginR - chartValueX - 12
-	vs := FormatQ(q, st.Value) + " / " + FormatQ(q, st.Limit.Derated)
+	vs := pairText(FormatQ(q, st.Value), FormatQ(q, st.Limit.Derated))
+	for size := 6.8; p.width(vs) > vw && size > 5.4; size -= 0.2 {
+		p.font("", size)
+	}
 	p.cellAt(chartValueX+12, y, vw, chartRowH, p.fit(vs, vw), "L")
 	p.text(colInk)
+}
+
+// pairText writes "worst / limit", with the unit once when both share it:
+// "40.4 / 42.6 A/mm²".
+func pairText(a, b string) string {
+	ia, ib := strings.Index(a, " "), strings.Index(b, " ")
+	if ia > 0 && ib > 0 && a[ia:] == b[ib:] {
+		return a[:ia] + " / " + b
+	}
+	return a + " / " + b
 }
 
 // --- frequency response ---
@@ -336,24 +350,35 @@ func (p *pdfw) responsePlot(fp *FilterPlot) {
 	p.curve(pts, ax, yOf, func(sp stress.SweepPoint) float64 { return -sp.S11dB }, colSecond, 0.35, true)
 	p.curve(pts, ax, yOf, func(sp stress.SweepPoint) float64 { return -sp.S21dB }, colAccent, 0.5, false)
 	f.ClipEnd()
-	// outside-band carriers: a dash-dot line, labelled from the bottom up,
-	// where a lowpass or bandpass curve leaves room
+	// outside-band carriers: a dash-dot line; labelled after the harmonics
+	// so a label can step aside from their marks
 	extras := 0
+	var extraX []float64
 	for _, fx := range fp.Extra {
 		x := ax.x(fx)
 		if !(fx > 0) || !inX(x) {
 			continue
 		}
 		extras++
+		extraX = append(extraX, x)
 		p.draw(colCautionB)
 		f.SetLineWidth(0.3)
 		f.SetDashPattern([]float64{2, 0.8, 0.4, 0.8}, 0)
 		f.Line(x, top, x, bottom)
 		f.SetDashPattern(nil, 0)
-		p.font("", 6.3)
-		p.text(colCautionB)
-		p.rotText(x-0.7, bottom-1.5, compactSI(fx, "Hz")+" outside the band", true)
 	}
+	// what is printed inside the plot, to keep labels apart
+	type box struct{ x0, y0, x1, y1 float64 }
+	var taken []box
+	clear := func(b box) bool {
+		for _, t := range taken {
+			if b.x0 < t.x1 && t.x0 < b.x1 && b.y0 < t.y1 && t.y0 < b.y1 {
+				return false
+			}
+		}
+		return true
+	}
+	const asc = 6.3 * 0.3528 * 0.8 // ascent of the 6.3 pt rotated labels
 	// harmonics of the band centre
 	lastX := -1e9
 	for _, h := range fp.Harmonics {
@@ -373,6 +398,7 @@ func (p *pdfw) responsePlot(fp *FilterPlot) {
 		f.SetDashPattern(nil, 0)
 		p.fill(colInk)
 		f.Circle(x, yp, 0.7, "F")
+		taken = append(taken, box{x - 0.9, top, x + 0.9, yp + 0.9})
 		if x-lastX < 3.2 {
 			continue // too close to the previous label to print
 		}
@@ -385,10 +411,45 @@ func (p *pdfw) responsePlot(fp *FilterPlot) {
 		p.font("", 6.3)
 		txt := dbText(att)
 		tw := p.width(txt)
-		if yp-1.2-tw > top+0.5 {
-			p.rotText(x+2.3, yp-1.2, txt, true)
-		} else {
-			p.rotText(x+2.3, math.Min(yp+1.2+tw, bottom-0.5), txt, true)
+		yb := yp - 1.2
+		if yp-1.2-tw <= top+0.5 {
+			yb = math.Min(yp+1.2+tw, bottom-0.5)
+		}
+		p.rotText(x+2.3, yb, txt, true)
+		taken = append(taken, box{x + 2.3 - asc, yb - tw, x + 2.6, yb})
+	}
+	// carrier-also labels: beside their line, from the bottom or the top,
+	// in full or as the bare frequency, wherever nothing else is printed
+	p.font("", 6.3)
+	p.text(colCautionB)
+	for i, fx := range fp.Extra {
+		if i >= len(extraX) {
+			break
+		}
+		x := extraX[i]
+		for _, txt := range []string{compactSI(fx, "Hz") + " outside the band", compactSI(fx, "Hz")} {
+			w := p.width(txt)
+			done := false
+			for _, c := range []struct {
+				x     float64
+				fromT bool
+			}{{x - 0.7, false}, {x + 0.7 + asc, false}, {x - 0.7, true}, {x + 0.7 + asc, true}} {
+				yb := bottom - 1.5
+				if c.fromT {
+					yb = top + 1.5 + w
+				}
+				b := box{c.x - asc, yb - w, c.x + 0.4, yb}
+				if !clear(b) {
+					continue
+				}
+				p.rotText(c.x, yb, txt, true)
+				taken = append(taken, b)
+				done = true
+				break
+			}
+			if done {
+				break
+			}
 		}
 	}
 	// frame
@@ -471,7 +532,22 @@ func (p *pdfw) freqTicks(ax logAxis, bottom float64) {
 		labelled = []int{1}
 	}
 	p.font("", 7)
-	lastRight := -1e9
+	// labels are placed decades first, then 5, 2, 3, … so a decade's
+	// label is never crowded out by the minor one before it
+	type span struct{ l, r float64 }
+	var placed []span
+	free := func(l, r float64) bool {
+		for _, s := range placed {
+			if l < s.r+1.5 && s.l < r+1.5 {
+				return false
+			}
+		}
+		return true
+	}
+	var labels []struct {
+		fr  float64
+		pri int
+	}
 	for d := math.Floor(math.Log10(ax.lo)); d <= math.Ceil(math.Log10(ax.hi)); d++ {
 		for m := 1; m <= 9; m++ {
 			fr := float64(m) * math.Pow(10, d)
@@ -496,15 +572,24 @@ func (p *pdfw) freqTicks(ax logAxis, bottom float64) {
 			if !label {
 				continue
 			}
-			s := compactSI(fr, "Hz")
-			w := p.width(s)
-			if x-w/2 < lastRight+1.5 || x+w/2 > pageW-marginR+2 {
-				continue
-			}
-			lastRight = x + w/2
-			p.text(colMuted)
-			p.cellAt(x-w/2-0.5, bottom+1.8, w+1, 3.2, s, "C")
+			pri := [...]int{0, 0, 2, 3, 4, 1, 5, 6, 7, 8}[m]
+			labels = append(labels, struct {
+				fr  float64
+				pri int
+			}{fr, pri})
 		}
+	}
+	sort.SliceStable(labels, func(i, j int) bool { return labels[i].pri < labels[j].pri })
+	p.text(colMuted)
+	for _, lb := range labels {
+		x := ax.x(lb.fr)
+		s := compactSI(lb.fr, "Hz")
+		w := p.width(s)
+		if !free(x-w/2, x+w/2) || x+w/2 > pageW-marginR+2 {
+			continue
+		}
+		placed = append(placed, span{x - w/2, x + w/2})
+		p.cellAt(x-w/2-0.5, bottom+1.8, w+1, 3.2, s, "C")
 	}
 	p.text(colInk)
 }

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"strconv"
-	"strings"
 
 	"rfstress/circuits"
 	"rfstress/ratings"
@@ -34,6 +33,17 @@ type trow struct {
 	detail     []string
 	detailMono bool // detail is a digest or code: monospace
 	cont       bool // continues the previous row's group: same shading
+	// grid is a small table under the row (gridCols wide), each line with
+	// an optional note spanning the grid's width under it
+	grid     []gridRow
+	gridCols []tcol
+}
+
+// gridRow is one line of a row's small table.
+type gridRow struct {
+	cells []string
+	note  string
+	col   rgb // colour of the last cell (a verdict); zero: ink
 }
 
 func tc(s string) tcell { return tcell{s: s} }
@@ -47,6 +57,10 @@ type rowLayout struct {
 	lines  [][]string
 	n      int // text lines of the tallest cell
 	dlines []string
+	glines [][][]string // per grid row, per cell: lines
+	gnote  [][]string   // per grid row: note lines
+	gh     []float64    // per grid row: height
+	ghead  float64      // grid heading height
 	h      float64
 }
 
@@ -84,6 +98,38 @@ func (p *pdfw) table(cols []tcol, rows []trow, size float64) {
 		l.h = float64(l.n)*lh + 2*cellPad
 		if len(l.dlines) > 0 {
 			l.h += float64(len(l.dlines))*dlh + cellPad
+		}
+		if len(r.grid) > 0 {
+			p.font("B", detailSize)
+			hn := 1
+			for _, c := range r.gridCols {
+				hn = max(hn, len(p.split(c.title, c.w-1)))
+			}
+			l.ghead = float64(hn)*dlh + 0.6
+			l.h += l.ghead
+			p.font("", detailSize)
+			for _, g := range r.grid {
+				var cells [][]string
+				n := 1
+				for i, c := range g.cells {
+					if i >= len(r.gridCols) {
+						break
+					}
+					ls := p.split(c, r.gridCols[i].w-1)
+					cells = append(cells, ls)
+					n = max(n, len(ls))
+				}
+				var note []string
+				if g.note != "" {
+					note = p.split(g.note, tableW(r.gridCols)-6)
+				}
+				h := float64(n+len(note))*dlh + 0.5
+				l.glines = append(l.glines, cells)
+				l.gnote = append(l.gnote, note)
+				l.gh = append(l.gh, h)
+				l.h += h
+			}
+			l.h += cellPad
 		}
 		return l
 	}
@@ -156,7 +202,7 @@ func (p *pdfw) table(cols []tcol, rows []trow, size float64) {
 				break
 			}
 			if c.pill {
-				p.pill(x+cellPad, y+cellPad, lh, c.v)
+				p.pillFit(x+cellPad, y+cellPad, lh, c.v, cols[i].w-2*cellPad)
 			} else {
 				p.cellFont(c, size)
 				for j, l := range lay.lines[i] {
@@ -172,6 +218,48 @@ func (p *pdfw) table(cols []tcol, rows []trow, size float64) {
 			dy := y + float64(lay.n)*lh + 2*cellPad
 			for j, l := range lay.dlines {
 				p.cellAt(marginL+4, dy+float64(j)*dlh, tw-6, dlh, l, "L")
+			}
+			p.text(colInk)
+		}
+		if len(r.grid) > 0 {
+			gy := y + float64(lay.n)*lh + 2*cellPad
+			gx := marginL + 4
+			p.font("B", detailSize)
+			p.text(colMuted)
+			x := gx
+			for _, c := range r.gridCols {
+				for j, l := range p.split(c.title, c.w-1) {
+					p.cellAt(x, gy+float64(j)*dlh, c.w-1, dlh, l, c.align)
+				}
+				x += c.w
+			}
+			gy += lay.ghead
+			p.draw(colRule)
+			f.SetLineWidth(0.1)
+			f.Line(gx, gy-0.3, gx+tableW(r.gridCols), gy-0.3)
+			p.font("", detailSize)
+			for k, g := range r.grid {
+				x := gx
+				for i, ls := range lay.glines[k] {
+					c := r.gridCols[i]
+					p.text(colInk)
+					if i == len(r.gridCols)-1 && g.col != (rgb{}) {
+						p.text(g.col)
+					}
+					for j, l := range ls {
+						p.cellAt(x, gy+float64(j)*dlh, c.w-1, dlh, l, c.align)
+					}
+					x += c.w
+				}
+				n := 1
+				for _, ls := range lay.glines[k] {
+					n = max(n, len(ls))
+				}
+				p.text(colMuted)
+				for j, l := range lay.gnote[k] {
+					p.cellAt(gx+6, gy+float64(n+j)*dlh, tableW(r.gridCols)-6, dlh, l, "L")
+				}
+				gy += lay.gh[k]
 			}
 			p.text(colInk)
 		}
@@ -244,9 +332,10 @@ func (p *pdfw) partTable(s *stress.Section) {
 			}
 		}
 		r.cells = append(r.cells, tc(pct(pr.Util)), tv(pr.Verdict))
+		r.gridCols = detailCols
 		for _, q := range stress.Quantities {
 			if st, ok := pr.Stress[q]; ok {
-				r.detail = append(r.detail, stressDetail(s, st))
+				r.grid = append(r.grid, stressRow(s, st))
 			}
 		}
 		rows = append(rows, r)
@@ -254,43 +343,41 @@ func (p *pdfw) partTable(s *stress.Section) {
 	p.table(cols, rows, 8)
 }
 
-// stressDetail is one quantity of one part in words.
-func stressDetail(s *stress.Section, st *stress.Stress) string {
+// detailCols are the columns of a part's small table of stresses.
+var detailCols = []tcol{
+	{"quantity", 22, "L"}, {"worst", 17, "R"}, {"at (the worst case)", 50, "L"}, {"rating, from", 36, "L"},
+	{"derated", 16, "R"}, {"use", 12, "R"}, {"verdict", 18, "L"},
+}
+
+// stressRow is one quantity of one part as a row of the part's small
+// table; what to buy, and a use reached at another case, go in its note.
+func stressRow(s *stress.Section, st *stress.Stress) gridRow {
 	q := st.Quantity
-	var b strings.Builder
-	b.WriteString(QuantityLabel(q) + " " + FormatQ(q, st.Value))
-	if c := caseText(s, st.Case); c != "" {
-		b.WriteString(" at " + c)
-	}
 	lim := st.Limit
+	g := gridRow{cells: []string{QuantityLabel(q), FormatQ(q, st.Value), caseText(s, st.Case)}}
 	switch {
 	case lim.Quantity == "":
-		b.WriteString(" · not judged")
-		return b.String()
+		g.cells = append(g.cells, "not judged", "", "", "")
+		return g
 	case lim.Abs <= 0:
-		b.WriteString(" · " + lim.Basis)
-		b.WriteString(" → " + st.Verdict.String())
-		if st.Verdict != ratings.OK {
-			b.WriteString("; " + UpgradeText(stress.Upgrade{Stress: st}))
-		}
-		return b.String()
-	}
-	if lim.Advice {
-		fmt.Fprintf(&b, " · guide %s (%s) · %s of the guide", FormatQ(q, lim.Abs), lim.Basis, pct(st.Util))
-	} else {
-		fmt.Fprintf(&b, " · rating %s (%s), derated %s", FormatQ(q, lim.Abs), lim.Basis, FormatQ(q, lim.Derated))
-		fmt.Fprintf(&b, " · %s of the derated limit", pct(st.Util))
-	}
-	if st.UtilCase != st.Case {
-		if c := caseText(s, st.UtilCase); c != "" {
-			b.WriteString(" at " + c)
+		g.cells = append(g.cells, lim.Basis, "", "", st.Verdict.String())
+	default:
+		g.cells = append(g.cells, FormatQ(q, lim.Abs)+", "+lim.Basis, FormatQ(q, lim.Derated), pct(st.Util), st.Verdict.String())
+		if st.UtilCase != st.Case {
+			if c := caseText(s, st.UtilCase); c != "" {
+				g.note = "highest use at " + c
+			}
 		}
 	}
-	b.WriteString(" → " + st.Verdict.String())
+	g.col = verdictColor(st.Verdict)
 	if st.Verdict != ratings.OK {
-		b.WriteString("; " + UpgradeText(stress.Upgrade{Stress: st}))
+		buy := UpgradeText(stress.Upgrade{Stress: st})
+		if g.note != "" {
+			g.note += "; "
+		}
+		g.note += "to change: " + buy
 	}
-	return b.String()
+	return g
 }
 
 // findings lists the section's and its parts' findings.
@@ -384,6 +471,7 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 		p.sub("Frequency response (matched)", plotTopSp+plotH+30)
 		p.responsePlot(fp)
 	}
+	p.stressPlots(s, fp)
 	intro := "Worst value of each quantity over every case; under each part, every quantity with the case that produced it, " +
 		"its rating and where the rating comes from, the derated limit, the share of the derated limit used and the verdict."
 	p.sub("Parts", p.paraHeight(8, intro)+24)

@@ -143,8 +143,13 @@ func buildReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64, 
 		if s.Harmonics == nil {
 			s.Harmonics = e.HarmonicLines()
 		}
-		doc.Filters = append(doc.Filters, reports.FilterPlot{Sweep: e.Sweep(240), BandLo: s.Conditions.BandLo,
-			BandHi: s.Conditions.BandHi, Harmonics: s.Harmonics, Extra: s.Conditions.CarrierAlso})
+		fp := reports.FilterPlot{Sweep: e.Sweep(240), BandLo: s.Conditions.BandLo,
+			BandHi: s.Conditions.BandHi, Harmonics: s.Harmonics, Extra: s.Conditions.CarrierAlso,
+			Loads: e.LoadSet(), R0: real(e.C.Zin)}
+		if u, err := e.BandUse(21); err == nil {
+			fp.Use = u
+		}
+		doc.Filters = append(doc.Filters, fp)
 	}
 	return doc
 }
