@@ -614,6 +614,11 @@ type FluxFix struct {
 	// AeLe is the least Ae·le (m⁴) of a core of the same permeability;
 	// with Ae and le both grown by Ratio the AL and the turns stay.
 	AeLe float64
+	// Fewer turns on more area: AreaTurns turns on a core whose Ae is
+	// AreaFactor × this one's at the same le (AL grows with Ae, so the
+	// inductance stays near L: AreaFactor·AreaTurns² ≈ N²).
+	AreaFactor float64
+	AreaTurns  int
 	// Stack cores of this one, wound with StackTurns turns (0: more than 8
 	// would be needed).
 	Stack, StackTurns int
@@ -641,6 +646,10 @@ func (p *Part) FluxFix(r, irms, f float64) FluxFix {
 	k := p.Core
 	fx := FluxFix{Ratio: r, AeLe: k.Ae * k.Le * r * r}
 	n := float64(p.Turns)
+	if nt := math.Round(n / r); nt >= 1 && nt < n {
+		// B' = L·I/(N'·k·Ae) meets the limit when k ≥ r·N/N'
+		fx.AreaTurns, fx.AreaFactor = int(nt), r*n/nt
+	}
 	for s := int(math.Ceil(r*r - 1e-9)); s <= 8 && p.Turns > 0; s++ {
 		nt := math.Max(1, math.Round(n/math.Sqrt(float64(s))))
 		if r*n/(nt*float64(s)) <= 1 {
@@ -683,6 +692,9 @@ func (fx FluxFix) String(p *Part) string {
 	v := k.Ae * k.Le
 	s := fmt.Sprintf("at the same inductance: a core with Ae·le ≥ %s (this one %s; %d turns if Ae and le both grow ×%s)",
 		volumeUp(fx.AeLe), volume(v), p.Turns, ceilText(fx.Ratio, 4))
+	if fx.AreaTurns > 0 {
+		s += fmt.Sprintf(", or fewer turns on more core: Ae ≥ %s× this one's at the same le with %d turns", ceilText(fx.AreaFactor, 4), fx.AreaTurns)
+	}
 	if fx.Stack > 0 {
 		s += fmt.Sprintf(", or %d of these cores stacked with %d turns", fx.Stack, fx.StackTurns)
 	}

@@ -123,6 +123,44 @@ func TestSaturationFerriteChoke(t *testing.T) {
 		if tp := p.Stress[ratings.Temp]; c.want == ratings.OK && tp.Verdict != ratings.OK {
 			t.Errorf("0.5 × bsat: the core is not cool (%.1f °C)", tp.Value)
 		}
+		if c.want != ratings.Fail {
+			continue
+		}
+		// the saturation remedies, applied, pass
+		text := st.BuyText
+		t.Logf("saturation remedy: %s", text)
+		fixes := map[string]string{}
+		if m := reAeLe.FindStringSubmatch(text); m != nil {
+			k, _ := strconv.ParseFloat(m[2], 64)
+			fixes["larger core"] = fmt.Sprintf("core F ae=%.9gmm2 le=%.9gmm material=nizn-mu125-ours area=10cm2|turns=%s", 16*k, 40*k, m[1])
+		}
+		if m := reArea2.FindStringSubmatch(text); m != nil {
+			k, _ := strconv.ParseFloat(m[1], 64)
+			fixes["fewer turns on more core"] = fmt.Sprintf("core F ae=%.9gmm2 le=40mm material=nizn-mu125-ours area=10cm2|turns=%s", 16*k, m[2])
+		}
+		if m := reStack.FindStringSubmatch(text); m != nil {
+			k, _ := strconv.Atoi(m[1])
+			fixes["stacked"] = fmt.Sprintf("core F ae=%dmm2 le=40mm material=nizn-mu125-ours area=10cm2|turns=%s", 16*k, m[2])
+		}
+		if m := reMu.FindStringSubmatch(text); m != nil {
+			fixes["lower permeability"] = "core F ae=16mm2 le=40mm material=nizn mu=" + m[1] + " area=10cm2|turns=" + m[2]
+		}
+		if len(fixes) < 4 {
+			t.Errorf("saturation remedies missing from %q", text)
+		}
+		for what, fix := range fixes {
+			coreLine, turns, _ := strings.Cut(fix, "|")
+			src := strings.Replace(chokeNet, "core F ae=16mm2 le=40mm material=nizn-mu125-ours", coreLine, 1)
+			src = strings.Replace(src, "turns=40", turns, 1)
+			fx := build(t, src, "freq=7M", "harmonics=none", "mode=carrier", "power="+formatG(power))
+			sec, err := fx.eng.Audit()
+			if err != nil {
+				t.Fatalf("%s: %v", what, err)
+			}
+			if u := sec.Parts[0].Stress[ratings.Bpk].Util; u > 1+1e-9 {
+				t.Errorf("%s: saturation still at %.4f of its derated limit", what, u)
+			}
+		}
 	}
 }
 
@@ -186,6 +224,7 @@ func TestKeyDownAndDutyPresets(t *testing.T) {
 
 var (
 	reAeLe  = regexp.MustCompile(`(\d+) turns if Ae and le both grow ×([0-9.]+)`)
+	reArea2 = regexp.MustCompile(`Ae ≥ ([0-9.]+)× this one's at the same le with (\d+) turns`)
 	reStack = regexp.MustCompile(`(\d+) of these cores stacked with (\d+) turns`)
 	reMu    = regexp.MustCompile(`permeability ≤ ([0-9.]+) with (\d+) turns`)
 	reArea  = regexp.MustCompile(`cooling surface ≥ ([0-9.]+) cm²`)
@@ -259,6 +298,11 @@ func TestRemediesApplied(t *testing.T) {
 		reaudit("larger core", l4(base, fmt.Sprintf("core K2 ae=%.9gmm2 le=%.9gmm material=iron-mu10-ours area=%.9gmm2", ae*k*1e6, le*k*1e3, p.Rating.Area*1e6), "core=K2 turns="+m[1]), ratings.Bavg)
 	} else {
 		t.Errorf("no larger-core remedy in %q", text)
+	}
+	if m := reArea2.FindStringSubmatch(text); m != nil {
+		reaudit("fewer turns on more area", l4(base, fmt.Sprintf("core K2 ae=%.9gmm2 le=%.9gmm material=iron-mu10-ours area=%.9gmm2", ae*num(m[1])*1e6, le*1e3, p.Rating.Area*1e6), "core=K2 turns="+m[2]), ratings.Bavg)
+	} else {
+		t.Errorf("no fewer-turns remedy in %q", text)
 	}
 	if m := reStack.FindStringSubmatch(text); m != nil {
 		reaudit("stacked cores", l4(base, fmt.Sprintf("core K2 od=18mm id=10mm h=%gmm material=iron-mu10-ours", 6*num(m[1])), "core=K2 turns="+m[2]), ratings.Bavg)
