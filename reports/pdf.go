@@ -103,6 +103,9 @@ func WritePDF(w io.Writer, doc *ReportDoc) error {
 			fp = &doc.Filters[i]
 		}
 		p.sectionPages(s, fp)
+		if s.Retune != nil {
+			p.tunePage(RetuneView(s))
+		}
 	}
 	p.method()
 	p.listings()

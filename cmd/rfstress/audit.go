@@ -335,29 +335,6 @@ type auditJob struct {
 	eng  *stress.Engine
 }
 
-// retuneFile tunes a file's variable parts for every load and audits each
-// match. The load set is --loads, else the file's own SWR circle (as a
-// region: centre and rings) and explicit loads.
-func retuneFile(c *circuits.Circuit, rs *ratings.Set, cond stress.Conditions, allowUnrated bool, tf *tuneFlags, policy tuning.Policy) (*stress.Section, error) {
-	m, err := tuning.NewMatcher(c, *tf.swr, policy)
-	if err != nil {
-		return nil, err
-	}
-	var ls *tuning.LoadSet
-	if *tf.loads != "" {
-		if ls, err = tuning.ParseLoads(*tf.loads, c.Zout, readText("load file")); err != nil {
-			return nil, err
-		}
-	} else {
-		ls = tuning.Region(c.Zout, cond.SWR)
-		ls.Source = fmt.Sprintf("port out's z, the file's SWR %g region and loads", cond.SWR)
-		for _, z := range cond.Loads {
-			ls.Points = append(ls.Points, tuning.LoadPoint{Z: z})
-		}
-	}
-	return stress.RetuneAudit(c, rs, cond, allowUnrated, ls, m, *tf.workers)
-}
-
 func failLevel(s string) (int, error) {
 	switch s {
 	case "unrated":
@@ -370,4 +347,35 @@ func failLevel(s string) (int, error) {
 		return -1, nil
 	}
 	return 0, usagef("--fail-on %s: expected unrated, marginal, fail or never", s)
+}
+
+// retuneFile tunes a file's variable parts for every load and audits each
+// match. The load set is --loads, else a measured antenna port's data at
+// the band carriers, else the file's own SWR circle (as a region: centre
+// and rings) and explicit loads.
+func retuneFile(c *circuits.Circuit, rs *ratings.Set, cond stress.Conditions, allowUnrated bool, tf *tuneFlags, policy tuning.Policy) (*stress.Section, error) {
+	m, err := tuning.NewMatcher(c, *tf.swr, policy)
+	if err != nil {
+		return nil, err
+	}
+	var ls *tuning.LoadSet
+	if *tf.loads != "" {
+		if ls, err = tuning.ParseLoads(*tf.loads, c.Zout, readText("load file")); err != nil {
+			return nil, err
+		}
+	} else if c.HasMeasuredAntenna() {
+		// the antenna's own measured impedance at each band carrier
+		ls = &tuning.LoadSet{Source: "port out's measured impedance", File: true}
+		carriers := cond.Carriers()
+		for _, f := range carriers[:len(carriers)-len(cond.CarrierAlso)] {
+			ls.Points = append(ls.Points, tuning.LoadPoint{F: f, Z: c.AntennaZ(f)})
+		}
+	} else {
+		ls = tuning.Region(c.Zout, cond.SWR)
+		ls.Source = fmt.Sprintf("port out's z, the file's SWR %g region and loads", cond.SWR)
+		for _, z := range cond.Loads {
+			ls.Points = append(ls.Points, tuning.LoadPoint{Z: z})
+		}
+	}
+	return stress.RetuneAudit(c, rs, cond, allowUnrated, ls, m, *tf.workers)
 }

@@ -3,7 +3,6 @@ package main
 import (
 	"io"
 	"math"
-	"os"
 
 	"rfstress/reports"
 	"rfstress/tuning"
@@ -91,7 +90,7 @@ func runTune(args []string, stdout, stderr io.Writer) (int, error) {
 	}
 	var ls *tuning.LoadSet
 	if *tf.loads != "" {
-		ls, err = tuning.ParseLoads(*tf.loads, c.Zout, os.ReadFile)
+		ls, err = tuning.ParseLoads(*tf.loads, c.Zout, readText("load file"))
 		if err != nil {
 			return exitUsage, usageError{err}
 		}

@@ -3,6 +3,8 @@ package main
 import (
 	"encoding/json"
 	"math"
+	"os/exec"
+	"path/filepath"
 	"strings"
 	"testing"
 )
@@ -124,5 +126,31 @@ func TestAuditRetuneStation(t *testing.T) {
 	}
 	if code, _, _ := runCLI(t, "audit", net, "--loads", "swr=10"); code != 2 {
 		t.Errorf("--loads without --retune: exit %d, want 2", code)
+	}
+}
+
+// The PDF gives a retuned file its tuning page: the chart's legend counts
+// the unmatchable load, and the table lists every load.
+func TestAuditRetunePDF(t *testing.T) {
+	if _, err := exec.LookPath("pdftotext"); err != nil {
+		t.Skip("pdftotext not installed")
+	}
+	net := writeFile(t, "l.net", lTuneNet+"audit power=100 freq=7M harmonics=none faults=open\n")
+	loads := writeFile(t, "loads.csv", "frequency,R,X\n7M,200,0\n7.05M,10,0\n7.1M,400,-100\n")
+	pdf := filepath.Join(t.TempDir(), "r.pdf")
+	t.Setenv("SOURCE_DATE_EPOCH", "0")
+	code, _, errs := runCLI(t, "audit", net, "--retune", "--loads", loads, "--band", "7M:7.1M", "--allow-unrated", "--report", pdf)
+	if code == 2 {
+		t.Fatalf("exit 2: %s", errs)
+	}
+	txt, err := exec.Command("pdftotext", "-enc", "UTF-8", pdf, "-").Output()
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(txt)
+	for _, want := range []string{"Tuning chart:", "Settings per load", "unmatchable: 1", "least-loss", "L1 at its"} {
+		if !strings.Contains(s, want) {
+			t.Errorf("PDF text lacks %q", want)
+		}
 	}
 }
