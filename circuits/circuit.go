@@ -3,6 +3,7 @@ package circuits
 import (
 	"fmt"
 	"math"
+	"math/cmplx"
 )
 
 // Element is a component prepared for the solver.
@@ -36,8 +37,20 @@ type Circuit struct {
 	Elements []Element
 	mutuals  []mutual
 	In, Out  int // node indices of the ports
-	Zin      complex128
-	Zout     complex128
+	// OutB is the second node of a balanced antenna port (−1: the port is
+	// from Out to gnd); the load sits between Out and OutB.
+	OutB int
+	Zin  complex128 // reference impedance of the transmitter port
+	// Zs is the transmitter's own output impedance (source=), which the
+	// network is solved with; Zin when the netlist gives none.
+	Zs        complex128
+	HasSource bool
+	Zout      complex128
+	// ZCM is the common-mode impedance from a balanced load's centre to
+	// gnd (cm=); HasCM false leaves the centre unconnected.
+	ZCM      complex128
+	HasCM    bool
+	cmBranch int
 	outMeas  *measuredData // measured antenna impedance
 	nBranch  int
 }
@@ -54,6 +67,13 @@ func Build(nl *Netlist) (*Circuit, error) {
 	}
 	c.In, c.Out = idx[nl.In.Node], idx[nl.Out.Node]
 	c.Zin, c.Zout = nl.In.Z, nl.Out.Z
+	c.Zs, c.OutB, c.cmBranch = c.Zin, -1, -1
+	if nl.In.HasSource {
+		c.Zs, c.HasSource = nl.In.Source, true
+	}
+	if nl.Out.Node2 != "" {
+		c.OutB = idx[nl.Out.Node2]
+	}
 	byName := map[string]int{}
 	next := len(nl.Nodes) // branch unknowns follow the node voltages
 	for _, comp := range nl.Components {
@@ -80,6 +100,10 @@ func Build(nl *Netlist) (*Circuit, error) {
 		}
 		byName[comp.Name] = len(c.Elements)
 		c.Elements = append(c.Elements, e)
+	}
+	if nl.Out.HasCM && c.OutB >= 0 {
+		c.ZCM, c.HasCM, c.cmBranch = nl.Out.CM, true, next
+		next++
 	}
 	c.nBranch = next - len(nl.Nodes)
 	if nl.Out.Attrs != nil {
@@ -243,11 +267,24 @@ func (c *Circuit) stamp(s *System, f float64, load *Load) {
 		s.Add(bi, bj, complex(0, -w*M))
 		s.Add(bj, bi, complex(0, -w*M))
 	}
-	s.Admit(c.In, -1, 1/c.Zin)
+	s.Admit(c.In, -1, 1/c.Zs)
+	if c.cmBranch >= 0 {
+		// common mode of a balanced load: half the current ic into each
+		// terminal, (V(Out) + V(OutB))/2 = ZCM·ic
+		k := c.cmBranch
+		s.Add(c.Out, k, 0.5)
+		s.Add(c.OutB, k, 0.5)
+		s.Add(k, c.Out, 0.5)
+		s.Add(k, c.OutB, 0.5)
+		s.Add(k, k, -c.ZCM)
+	}
 	if load != nil && !load.Open {
+		// the load branch: V(Out) − V(OutB) = Z·I, I from Out to OutB
 		k := c.Size()
 		s.Add(c.Out, k, 1)
+		s.Add(c.OutB, k, -1)
 		s.Add(k, c.Out, 1)
+		s.Add(k, c.OutB, -1)
 		s.Add(k, k, -load.Z)
 	}
 }
@@ -394,13 +431,32 @@ func (c *Circuit) SourceRHS(b []complex128, e complex128) {
 	for i := range b {
 		b[i] = 0
 	}
-	b[c.In] = e / c.Zin
+	b[c.In] = e / c.Zs
 }
 
-// EMFForPower is the rms open-circuit EMF whose available power into the
-// input port impedance is p: |E|²/(4·Re Z) = p.
+// EMFForPower is the rms open-circuit EMF of the transmitter at power p:
+// without source= the EMF whose available power is p, |E|²/(4·Re Z) = p;
+// with source=, the EMF that puts p into a load equal to the port's z
+// behind the true source impedance (a transmitter rated p into z):
+// |E|·√(Re z)/|Zs + z| = √p.
 func (c *Circuit) EMFForPower(p float64) float64 {
+	if c.HasSource {
+		return cmplx.Abs(c.Zs+c.Zin) * math.Sqrt(p/real(c.Zin))
+	}
 	return 2 * math.Sqrt(p*real(c.Zin))
+}
+
+// VOut is the antenna port's voltage in solution x (differential for a
+// balanced port).
+func (c *Circuit) VOut(x []complex128) complex128 { return nodeV(x, c.Out) - nodeV(x, c.OutB) }
+
+// CommonModeI is the common-mode current into a balanced load's centre
+// impedance in solution x (0 without cm=).
+func (c *Circuit) CommonModeI(x []complex128) complex128 {
+	if c.cmBranch < 0 {
+		return 0
+	}
+	return x[c.cmBranch]
 }
 
 // PartState is one element's solved state (rms phasors).
@@ -465,6 +521,7 @@ type Result struct {
 	Pout     float64 // into the load
 	Ploss    float64 // Σ part dissipation
 	Zin      complex128
+	Icm      complex128 // common-mode current of a balanced load (cm=)
 }
 
 // Solve drives the input port with available power p at f into load.
@@ -481,8 +538,9 @@ func (c *Circuit) Solve(f, p float64, load Load) (*Result, error) {
 	c.PartStates(x, f, r.Parts)
 	r.Nodes = append([]complex128(nil), x[:len(c.Nodes)]...)
 	r.Vin = x[c.In]
-	r.Iin = (complex(e, 0) - r.Vin) / c.Zin
-	r.Vout = x[c.Out]
+	r.Iin = (complex(e, 0) - r.Vin) / c.Zs
+	r.Vout = c.VOut(x)
+	r.Icm = c.CommonModeI(x)
 	if !load.Open {
 		r.Iout = x[c.Size()]
 	}

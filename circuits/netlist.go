@@ -132,9 +132,16 @@ func (c *Component) Terminals() []string {
 type Port struct {
 	Side  string // "in" or "out"
 	Node  string
+	Node2 string // second node of a balanced port out ("" when unbalanced)
 	Z     complex128
 	Pos   Pos
 	Attrs Attrs
+	// Source is the transmitter's output impedance (port in, source=).
+	Source    complex128
+	HasSource bool
+	// CM is a balanced load's common-mode impedance to gnd (port out, cm=).
+	CM    complex128
+	HasCM bool
 }
 
 // Core is a magnetic core; its meaning is read by the ratings layer.
@@ -348,6 +355,9 @@ func (p *parser) line(ln int, raw string) {
 	if ks := SpecOf(Kind(kw.Text)); ks != nil {
 		spec.Fields, _ = fieldsFor(ks, len(fields))
 	}
+	if kw.Text == "port" && len(fields) == 3 {
+		spec.Fields = portBalanced // a balanced port out: two nodes
+	}
 	if len(fields) != len(spec.Fields) {
 		at := kw.Col
 		if len(fields) > len(spec.Fields) {
@@ -460,6 +470,9 @@ func (p *parser) port(ln int, f []Field, attrs Attrs) {
 	} else {
 		return
 	}
+	if !p.portExtras(ln, pt, f, attrs) {
+		return
+	}
 	if side == "in" {
 		if p.nl.In != nil {
 			p.errorf(pt.Pos, "one port in", "port in is already defined at line %d", p.nl.In.Pos.Line)
@@ -475,6 +488,68 @@ func (p *parser) port(ln int, f []Field, attrs Attrs) {
 		p.nl.Out = pt
 		p.portNodePos[side] = p.pos(ln, f[1].Col)
 	}
+}
+
+var portBalanced = []string{"out", "node", "node"}
+
+// portExtras reads a balanced port out's second node and cm=, and port
+// in's source=.
+func (p *parser) portExtras(ln int, pt *Port, f []Field, attrs Attrs) bool {
+	ok := true
+	if len(f) == 3 {
+		n2 := f[2]
+		switch {
+		case pt.Side != "out":
+			p.errorf(p.pos(ln, n2.Col), "port in NODE z=…", "port in takes one node")
+			ok = false
+		case n2.Text == Ground:
+			p.errorf(p.pos(ln, n2.Col), "two nodes other than gnd for a balanced port, or one node for a port to gnd", "balanced port out on the ground node")
+			ok = false
+		case !validName(n2.Text):
+			p.errorf(p.pos(ln, n2.Col), "a node name: "+namePattern, "bad node name %q", n2.Text)
+			ok = false
+		case n2.Text == pt.Node:
+			p.errorf(p.pos(ln, n2.Col), "two different nodes", "balanced port out has both ends on %s", n2.Text)
+			ok = false
+		default:
+			pt.Node2 = n2.Text
+		}
+	}
+	if a, has := attrs["source"]; has {
+		switch {
+		case pt.Side != "in":
+			p.errorf(a.Pos, "source= on port in (the transmitter)", "source impedance on port out")
+			ok = false
+		case len(a.Zs) != 1:
+			p.errorf(a.ValPos, "one impedance", "source takes one impedance")
+			ok = false
+		case real(a.Zs[0]) <= 0:
+			p.errorf(a.ValPos, "a resistive part above 0 Ω, e.g. 3+j0", "source impedance %s has no positive resistance", a.Raw)
+			ok = false
+		default:
+			pt.Source, pt.HasSource = a.Zs[0], true
+		}
+	}
+	if a, has := attrs["cm"]; has {
+		switch {
+		case pt.Side != "out" || len(f) != 3:
+			p.errorf(a.Pos, "cm= on a balanced port out A B", "common-mode impedance on a port that is not balanced")
+			ok = false
+		case len(a.Zs) != 1:
+			p.errorf(a.ValPos, "one impedance", "cm takes one impedance")
+			ok = false
+		case real(a.Zs[0]) < 0:
+			p.errorf(a.ValPos, "an impedance with a resistive part ≥ 0", "common-mode impedance %s is active", a.Raw)
+			ok = false
+		default:
+			pt.CM, pt.HasCM = a.Zs[0], true
+		}
+	}
+	if _, has := attrs["measured"]; has && pt.Node2 != "" {
+		p.errorf(attrs["measured"].Pos, "measured= on a port to gnd", "measured data on a balanced port")
+		ok = false
+	}
+	return ok
 }
 
 func (p *parser) coupling(ln int, f []Field, attrs Attrs) {
@@ -784,12 +859,18 @@ func (p *parser) check() {
 	if nl.Out == nil && !p.portSeen["out"] {
 		p.errorf(top, "a line such as: port out n4 z=50", "no port out (antenna side)")
 	}
+	if nl.In != nil && nl.Out != nil && nl.Out.Node2 != "" && nl.In.Node == nl.Out.Node2 {
+		p.errorf(nl.Out.Pos, "separate nodes for port in and port out", "port out is on the same node as port in")
+	}
 	if nl.In != nil && nl.Out != nil && nl.In.Node == nl.Out.Node {
 		p.errorf(nl.Out.Pos, "separate nodes for port in and port out", "port out is on the same node as port in")
 	}
 	for _, pt := range []*Port{nl.In, nl.Out} {
 		if pt != nil && !p.nodeSeen[pt.Node] {
 			p.errorf(p.portNodePos[pt.Side], "a node that a part connects to", "port %s names unknown node %s", pt.Side, Quote(pt.Node))
+		}
+		if pt != nil && pt.Node2 != "" && !p.nodeSeen[pt.Node2] {
+			p.errorf(p.portNodePos[pt.Side], "a node that a part connects to", "port %s names unknown node %q", pt.Side, pt.Node2)
 		}
 	}
 	for _, c := range nl.Components {
@@ -828,7 +909,16 @@ func (p *parser) check() {
 		}
 	}
 	link(nl.In.Node, Ground)
-	link(nl.Out.Node, Ground)
+	if nl.Out.Node2 != "" {
+		// a balanced load joins its two nodes; its centre reaches gnd
+		// only through cm=
+		link(nl.Out.Node, nl.Out.Node2)
+		if nl.Out.HasCM {
+			link(nl.Out.Node, Ground)
+		}
+	} else {
+		link(nl.Out.Node, Ground)
+	}
 	seen := map[string]bool{Ground: true}
 	stack := []string{Ground}
 	for len(stack) > 0 {

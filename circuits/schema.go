@@ -56,6 +56,8 @@ var Keywords = map[string]Keyword{
 	"title": {},
 	"port": {Fields: []string{"in|out", "node"}, Attrs: map[string]AttrSpec{
 		"z":        {Type: TComplex, Help: "port impedance such as 50 or 12.5-j180"},
+		"source":   {Type: TComplex, Help: "the transmitter's output impedance (port in) such as 3+j0"},
+		"cm":       {Type: TComplex, Help: "common-mode impedance from a balanced load's centre to gnd (port out A B) such as 2k"},
 		"measured": measuredAttrs["measured"],
 		"outside":  measuredAttrs["outside"],
 	}, Required: []string{"z"}},

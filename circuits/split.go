@@ -72,16 +72,20 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 	if err := w.fz.Refactor(f); err != nil {
 		return err
 	}
-	s.F, s.Zs = f, c.Zin
+	s.F, s.Zs = f, c.Zs
 	for k := 0; k < 2; k++ {
 		x := w.x
 		for i := range x {
 			x[i] = 0
 		}
 		if k == 0 {
-			x[c.In] = 1 / c.Zin
+			x[c.In] = 1 / c.Zs
 		} else {
+			// 1 A into the load's terminals, out of OutB when balanced
 			x[c.Out] = 1
+			if c.OutB >= 0 {
+				x[c.OutB] = -1
+			}
 		}
 		w.fz.Solve(x)
 		c.partStates(x, f, w.parts, false)
@@ -92,9 +96,9 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 		copy(s.Node[k], x[:len(c.Nodes)])
 		s.Vin[k] = x[c.In]
 		if k == 0 {
-			s.Voc = x[c.Out]
+			s.Voc = c.VOut(x)
 		} else {
-			s.Zth = x[c.Out]
+			s.Zth = c.VOut(x)
 		}
 	}
 	for i := range c.Elements {

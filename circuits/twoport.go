@@ -32,6 +32,11 @@ type TwoPortWork struct {
 
 // NewTwoPortWork prepares two-port solves of c.
 func NewTwoPortWork(c *Circuit) *TwoPortWork {
+	// S-parameters terminate port 1 in its reference z, not the
+	// transmitter's own source impedance
+	ref := *c
+	ref.Zs = c.Zin
+	c = &ref
 	w := &TwoPortWork{c: c, load: Load{Z: c.Zout}}
 	w.fz = c.newFactorization(&w.load)
 	w.x = make([]complex128, w.fz.N())
@@ -53,7 +58,7 @@ func (w *TwoPortWork) At(f float64) (SParams, error) {
 	// drive port 1 with E = 1: a1 = 1/(2√R1)
 	x[c.In] = 1 / c.Zin
 	fz.Solve(x)
-	v1, v2 := x[c.In], x[c.Out]
+	v1, v2 := x[c.In], c.VOut(x)
 	i1 := (1 - v1) / c.Zin // into the network
 	i2 := -x[c.Size()]     // into the network at port 2
 	a1 := 1 / (2 * complex(r1, 0))
@@ -69,7 +74,7 @@ func (w *TwoPortWork) At(f float64) (SParams, error) {
 	}
 	x[c.Size()] = 1
 	fz.Solve(x)
-	v1, v2 = x[c.In], x[c.Out]
+	v1, v2 = x[c.In], c.VOut(x)
 	i1 = -v1 / c.Zin
 	i2 = -x[c.Size()]
 	a2 := 1 / (2 * complex(r2, 0))

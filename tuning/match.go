@@ -578,7 +578,7 @@ func (t *tuner) gamma(v []float64) complex128 {
 	t.c.SourceRHS(t.x, 1)
 	t.fz.Solve(t.x)
 	vin := t.x[t.c.In]
-	iin := (1 - vin) / t.c.Zin
+	iin := (1 - vin) / t.c.Zs // solved behind the true source impedance
 	if iin == 0 {
 		return 1
 	}
