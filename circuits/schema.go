@@ -101,5 +101,6 @@ var Keywords = map[string]Keyword{
 		"ambient":      {Type: TNumber, Units: []string{"C"}, Help: "ambient temperature in °C"},
 		"harmonic-max": {Type: TInt, Help: "highest harmonic order audited"},
 		"key-down":     {Type: TText, Help: "time at the mode's average power before the temperature is judged, such as 90s or 5m; steady for steady state"},
+		"tx-swr-max":   {Type: TNumber, Help: "highest SWR the transmitter may see, e.g. 2"},
 	}},
 }

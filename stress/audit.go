@@ -281,6 +281,7 @@ type workspace struct {
 	record bool
 	extra  []Case
 	heat   ratings.Heat // the thermal state of the part evalPart last judged
+	tx     TxResult     // what the transmitter sees, worst over the run
 	// limits per part at the current carrier
 }
 
@@ -333,6 +334,7 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 	for i := range w.acc {
 		w.acc[i].reset()
 	}
+	w.resetTx()
 	var nw nodeWorst
 	pep := e.Cond.PowerW
 	emf := c.EMFForPower(pep)
@@ -371,6 +373,7 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 		}
 		if len(e.circle) > 0 {
 			e.circleCases(w, base+1, f, &nw)
+			e.txCircle(w, base+1)
 		}
 	}
 	return nw, nil
@@ -399,6 +402,9 @@ func (e *Engine) evalCase(w *workspace, ci int, kind CaseKind, l circuits.Load, 
 	alpha := w.carr.Alpha(l)
 	scale, k := e.drive(w, alpha)
 	cls := classOf(kind)
+	if kind != Circle {
+		e.txCase(w, ci, kind, alpha) // txCircle covers the circle
+	}
 	for i := range w.c.Elements {
 		e.evalPart(w, i, ci, kind, cls, alpha, scale, k, f)
 	}

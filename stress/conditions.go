@@ -129,6 +129,8 @@ type Conditions struct {
 	// flag), so an unreadable profile is reported there.
 	DerateAt circuits.Pos
 	Ambient  float64
+	// TxSWRMax is the highest SWR the transmitter may see (0: not judged).
+	TxSWRMax float64
 	// KeyDown is the time at the mode's average power before the
 	// temperature is judged, s: 0 not set (the mode's own on-period, else
 	// steady state), +Inf steady state asked for.
@@ -432,6 +434,15 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 			}
 			c.CarrierAlso = append(c.CarrierAlso, f)
 		}
+	case "tx-swr-max":
+		x, err := num()
+		if err != nil {
+			return err
+		}
+		if !(x >= 1) || x > 1000 {
+			return settingError(s, "an SWR from 1 to 1000, e.g. 2", "bad transmitter SWR limit %q", v)
+		}
+		c.TxSWRMax = x
 	case "derate":
 		if v == "" {
 			return settingError(s, "standard, strict, none or a profile file", "no profile named")

@@ -32,6 +32,11 @@ func (e *Engine) Audit() (*Section, error) {
 	for i, el := range e.C.Elements {
 		s.Parts = append(s.Parts, e.judge(s, el, e.rparts[i], &acc[i]))
 	}
+	s.Tx = w.tx
+	e.judgeTx(&s.Tx)
+	if s.Tx.Verdict > s.Verdict {
+		s.Verdict = s.Tx.Verdict
+	}
 	for _, p := range s.Parts {
 		if p.Verdict > s.Verdict && !(p.Verdict == ratings.Unrated && e.AllowUnrated) {
 			s.Verdict = p.Verdict
@@ -358,6 +363,9 @@ type Section struct {
 	// Retune is set when the variable parts were retuned per load
 	// (retune.go).
 	Retune *Retune
+	// Tx is what the transmitter sees: its worst SWR, input impedance and
+	// reflected power over every case, judged against tx-swr-max.
+	Tx TxResult
 }
 
 // Case returns case i of the section.

@@ -38,6 +38,7 @@ var conditionFlags = []struct{ name, def, help string }{
 	{"faults", "", "antenna `faults`: open, short, open,short or none"},
 	{"derate", "", "derating `profile`: standard, strict, none, or a profile file (default standard)"},
 	{"ambient", "", "ambient temperature in `°C` (default 25)"},
+	{"tx-swr-max", "", "highest `SWR` the transmitter may see at its port (transmitter protection; default: shown, not judged)"},
 }
 
 func runAudit(args []string, stdout, stderr io.Writer) (int, error) {

@@ -1,0 +1,172 @@
+package stress
+
+import (
+	"math"
+	"math/cmplx"
+
+	"rfstress/circuits"
+	"rfstress/ratings"
+)
+
+// What the transmitter sees: for every case the impedance at its port,
+// the reflection against the port's reference z (Kurokawa power waves with
+// reference z*, as for the load circle: Γ = (Zin − z)/(Zin + z*), which
+// vanishes when the transmitter sees z), the SWR, and the power a
+// directional wattmeter calibrated for z reads as reflected,
+// |V − z·I|²/(4·Re z). A lowpass for the wrong band, or an open antenna
+// behind a lossless tuner, shows here as a high SWR.
+
+// txSWRCap keeps the SWR of a total reflection finite for outputs.
+const txSWRCap = 1e6
+
+// TxView is the transmitter port in one case.
+type TxView struct {
+	Zin   complex128
+	Gamma float64 // |Γ|
+	SWR   float64
+	ReflW float64 // reflected power by a wattmeter calibrated for z
+	FwdW  float64
+	Case  int
+}
+
+// TxResult is the worst the transmitter sees over every case.
+type TxResult struct {
+	Worst  TxView
+	ByKind [nKind]TxView // worst per kind of case; Case −1 when none
+	Limit  float64       // tx-swr-max; 0 when not set
+	// Verdict against Limit (ok or fail; ok when no limit is set): the
+	// limit is the transmitter's own protection threshold, used as is.
+	Verdict ratings.Verdict
+}
+
+// SWRFromGamma is (1 + |Γ|)/(1 − |Γ|), capped for a total reflection.
+func SWRFromGamma(g float64) float64 {
+	if !(g < 1) {
+		return txSWRCap
+	}
+	return math.Min((1+g)/(1-g), txSWRCap)
+}
+
+// txAt is the transmitter's view for weight α and EMF scale (rms volts).
+func (e *Engine) txAt(s *circuits.Split, alpha complex128, scale float64) TxView {
+	vin := (s.Vin[0] + alpha*s.Vin[1]) * complex(scale, 0)
+	iin := (complex(scale, 0) - vin) / s.Zs
+	z := e.C.Zin
+	den := vin + cmplx.Conj(z)*iin
+	var v TxView
+	if iin != 0 {
+		v.Zin = vin / iin
+	} else {
+		v.Zin = complex(math.Inf(1), 0)
+	}
+	if cmplx.Abs(den) > 0 {
+		v.Gamma = cmplx.Abs((vin - z*iin) / den)
+	} else {
+		v.Gamma = 1
+	}
+	v.SWR = SWRFromGamma(v.Gamma)
+	rz := 4 * real(z)
+	b, a := vin-z*iin, vin+cmplx.Conj(z)*iin
+	v.ReflW = (real(b)*real(b) + imag(b)*imag(b)) / rz
+	v.FwdW = (real(a)*real(a) + imag(a)*imag(a)) / rz
+	return v
+}
+
+func (w *workspace) keepTx(v TxView, kind CaseKind) {
+	if v.SWR > w.tx.Worst.SWR || w.tx.Worst.Case < 0 {
+		w.tx.Worst = v
+	}
+	if k := &w.tx.ByKind[kind]; v.SWR > k.SWR || k.Case < 0 {
+		*k = v
+	}
+}
+
+func (w *workspace) resetTx() {
+	w.tx = TxResult{}
+	w.tx.Worst.Case = -1
+	for k := range w.tx.ByKind {
+		w.tx.ByKind[k].Case = -1
+	}
+}
+
+// txCase records the transmitter's view of one case.
+func (e *Engine) txCase(w *workspace, ci int, kind CaseKind, alpha complex128) {
+	scale, _ := e.drive(w, alpha)
+	v := e.txAt(w.carr, alpha, scale)
+	v.Case = ci
+	w.keepTx(v, kind)
+}
+
+// txCircle records the worst the transmitter sees over the SWR circle:
+// every sampled phase, then the continuous circle. Γ at the transmitter is
+// a bilinear (Möbius) function of the weight α, which runs on a circle,
+// so |Γ| has one crest on it; the best of 72 points along the α circle is
+// refined by golden-section search, so the worst reported is never below
+// any sampled load.
+func (e *Engine) txCircle(w *workspace, first int) {
+	s := w.carr
+	for j, l := range e.circle {
+		e.txCase(w, first+j, Circle, s.Alpha(l))
+	}
+	ca, ra, ok := e.alphaCircle(s)
+	if !ok || ra == 0 {
+		return
+	}
+	at := func(phi float64) complex128 { return ca + complex(ra*math.Cos(phi), ra*math.Sin(phi)) }
+	gam := func(phi float64) float64 {
+		a := at(phi)
+		scale, _ := e.drive(w, a)
+		return e.txAt(s, a, scale).Gamma
+	}
+	const n = 72
+	best, bj := -1.0, 0
+	for j := 0; j < n; j++ {
+		if g := gam(2 * math.Pi * float64(j) / n); g > best {
+			best, bj = g, j
+		}
+	}
+	step := 2 * math.Pi / n
+	phi, _ := goldenMax(gam, float64(bj)*step-step, float64(bj)*step+step)
+	a := at(phi)
+	scale, _ := e.drive(w, a)
+	v := e.txAt(s, a, scale)
+	v.Case = first + e.phaseOfAlpha(s, a)
+	w.keepTx(v, Circle)
+}
+
+// goldenMax maximises f on [a, b] by golden-section search (the ends kept).
+func goldenMax(f func(float64) float64, a, b float64) (float64, float64) {
+	const invPhi = 0.6180339887498949
+	bx, bv := a, f(a)
+	if v := f(b); v > bv {
+		bx, bv = b, v
+	}
+	c, d := b-invPhi*(b-a), a+invPhi*(b-a)
+	fc, fd := f(c), f(d)
+	for i := 0; i < 60 && b-a > 1e-12; i++ {
+		if fc >= fd {
+			b, d, fd = d, c, fc
+			c = b - invPhi*(b-a)
+			fc = f(c)
+		} else {
+			a, c, fc = c, d, fd
+			d = a + invPhi*(b-a)
+			fd = f(d)
+		}
+	}
+	if fc > bv {
+		bx, bv = c, fc
+	}
+	if fd > bv {
+		bx, bv = d, fd
+	}
+	return bx, bv
+}
+
+// judgeTx sets the transmitter verdict against tx-swr-max.
+func (e *Engine) judgeTx(t *TxResult) {
+	t.Limit = e.Cond.TxSWRMax
+	if t.Limit > 0 && t.Worst.SWR > t.Limit {
+		t.Verdict = ratings.Fail
+	}
+}
