@@ -195,6 +195,12 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 			wrapLine(w, width, lead, strings.Repeat(" ", runeLen(lead)+2), line)
 		}
 	}
+	for _, s := range b.Sections {
+		if s.Tx.Verdict == ratings.Fail {
+			wrapLine(w, width, "  ", "    ", fmt.Sprintf("TRANSMITTER PROTECTION: the amplifier sees SWR %s at %s in %s (tx-swr-max %s)",
+				FormatSWR(s.Tx.Worst.SWR), circuits.FormatHz(s.Case(s.Tx.Worst.Case).F), s.File, strconv.FormatFloat(s.Tx.Limit, 'g', -1, 64)))
+		}
+	}
 	var hot []string
 	for _, s := range b.Sections {
 		if s.MaxNodeVpk >= cautionV {
@@ -275,6 +281,39 @@ func writeSectionText(w io.Writer, s *stress.Section, width int) {
 	safe += fmt.Sprintf("; highest node voltage %s peak at %s (%s)", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, s.Case(s.MaxNodeCase).Describe())
 	fmt.Fprintln(w)
 	wrapLine(w, width, "   ", "     ", safe)
+	if t := TxText(s); t != "" {
+		wrapLine(w, width, "   ", "     ", t)
+	}
+}
+
+// FormatSWR renders an SWR; a total reflection shows as "≥ 10⁶".
+func FormatSWR(v float64) string {
+	if !(v < 1e6) {
+		return "≥ 1000000"
+	}
+	if v >= 100 {
+		return strconv.FormatFloat(v, 'f', 0, 64)
+	}
+	return strconv.FormatFloat(v, 'f', 2, 64)
+}
+
+// TxText says what the transmitter sees at worst, and its verdict against
+// tx-swr-max.
+func TxText(s *stress.Section) string {
+	t := s.Tx
+	if t.Worst.Case < 0 || s.Engine == nil {
+		return ""
+	}
+	v := t.Worst
+	text := fmt.Sprintf("the transmitter sees SWR %s at worst (%s): input impedance %s, %s reflected of %s forward (wattmeter referred to port in %s)",
+		FormatSWR(v.SWR), s.Case(v.Case).Describe(), circuits.FormatComplex(v.Zin),
+		circuits.FormatSI(v.ReflW, "W"), circuits.FormatSI(v.FwdW, "W"), circuits.FormatComplex(s.Engine.C.Zin))
+	if t.Limit > 0 {
+		text += fmt.Sprintf("; transmitter protection tx-swr-max %s: %s", strconv.FormatFloat(t.Limit, 'g', -1, 64), t.Verdict)
+	} else {
+		text += "; not judged (no tx-swr-max)"
+	}
+	return text
 }
 
 // AllFindings lists the section's findings and then each part's, in

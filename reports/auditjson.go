@@ -114,29 +114,42 @@ type JSONLimiting struct {
 
 // JSONSection summarises one netlist.
 type JSONSection struct {
-	File          string         `json:"file"`
-	Title         string         `json:"title"`
-	SHA256        string         `json:"sha256"`
-	Verdict       string         `json:"verdict"`
-	SafePowerW    *float64       `json:"safe_power_w"`
-	Limiting      JSONLimiting   `json:"limiting"`
-	Cases         int            `json:"cases"`
-	PowerW        float64        `json:"power_w"`
-	Mode          string         `json:"mode"`
-	AvgRatio      float64        `json:"avg_ratio"`
-	Drive         string         `json:"drive"`
-	Derate        string         `json:"derate"`
-	AmbientC      float64        `json:"ambient_c"`
-	Faults        []string       `json:"faults"`
-	CarrierAlsoHz []float64      `json:"carrier_also_hz"`
-	BandLoHz      float64        `json:"band_lo_hz"`
-	BandHiHz      float64        `json:"band_hi_hz"`
-	SWR           float64        `json:"swr"`
-	Harmonics     string         `json:"harmonics"`
-	MaxNodeVpk    float64        `json:"max_node_vpk"`
-	Findings      []string       `json:"findings,omitempty"`
-	Tolerance     *JSONTolerance `json:"tolerance,omitempty"`
-	Tuning        *JSONTune      `json:"tuning,omitempty"`
+	File          string       `json:"file"`
+	Title         string       `json:"title"`
+	SHA256        string       `json:"sha256"`
+	Verdict       string       `json:"verdict"`
+	SafePowerW    *float64     `json:"safe_power_w"`
+	Limiting      JSONLimiting `json:"limiting"`
+	Cases         int          `json:"cases"`
+	PowerW        float64      `json:"power_w"`
+	Mode          string       `json:"mode"`
+	AvgRatio      float64      `json:"avg_ratio"`
+	Drive         string       `json:"drive"`
+	Derate        string       `json:"derate"`
+	AmbientC      float64      `json:"ambient_c"`
+	Faults        []string     `json:"faults"`
+	CarrierAlsoHz []float64    `json:"carrier_also_hz"`
+	BandLoHz      float64      `json:"band_lo_hz"`
+	BandHiHz      float64      `json:"band_hi_hz"`
+	SWR           float64      `json:"swr"`
+	Harmonics     string       `json:"harmonics"`
+	MaxNodeVpk    float64      `json:"max_node_vpk"`
+	// what the transmitter sees, worst over every case
+	TxSWRWorst *float64       `json:"tx_swr_worst"`
+	TxZinWorst *JSONZ         `json:"tx_zin_worst"`
+	TxCase     string         `json:"tx_case"`
+	TxReflW    *float64       `json:"tx_reflected_w"`
+	TxSWRMax   *float64       `json:"tx_swr_max"`
+	TxVerdict  string         `json:"tx_verdict"`
+	Findings   []string       `json:"findings,omitempty"`
+	Tolerance  *JSONTolerance `json:"tolerance,omitempty"`
+	Tuning     *JSONTune      `json:"tuning,omitempty"`
+}
+
+// JSONZ is an impedance in ohms (null parts when not finite).
+type JSONZ struct {
+	Re *float64 `json:"re"`
+	Im *float64 `json:"im"`
 }
 
 // JSONAudit is the whole audit document.
@@ -170,6 +183,15 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 			Harmonics: s.Conditions.Harmonics, MaxNodeVpk: s.MaxNodeVpk}
 		for _, f := range s.Findings {
 			js.Findings = append(js.Findings, f.Part+": "+f.Text)
+		}
+		if t := s.Tx; t.Worst.Case >= 0 {
+			js.TxSWRWorst, js.TxReflW = jsonNum(t.Worst.SWR), jsonNum(t.Worst.ReflW)
+			js.TxZinWorst = &JSONZ{Re: jsonNum(real(t.Worst.Zin)), Im: jsonNum(imag(t.Worst.Zin))}
+			js.TxCase = s.Case(t.Worst.Case).Describe()
+			js.TxVerdict = "not judged"
+			if t.Limit > 0 {
+				js.TxSWRMax, js.TxVerdict = jsonNum(t.Limit), t.Verdict.String()
+			}
 		}
 		js.Tolerance = tolJSON(s)
 		if s.Retune != nil {
@@ -225,7 +247,7 @@ func WriteAuditJSON(w io.Writer, doc *JSONAudit) error { return writeJSON(w, doc
 // header.
 func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 	cw := csv.NewWriter(w)
-	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "bavg_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "vpk_case", "irms_case", "part_verdict", "part_utilization"})
+	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "bavg_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "vpk_case", "irms_case", "part_verdict", "part_utilization", "tx_swr", "tx_zin_re_ohm", "tx_zin_im_ohm", "tx_reflected_w"})
 	for _, s := range b.Sections {
 		for _, p := range s.Parts {
 			for _, k := range p.ByKind {
@@ -238,6 +260,12 @@ func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 					}
 				}
 				row = append(row, s.Case(k.Case[ratings.Vpk]).Describe(), s.Case(k.Case[ratings.Irms]).Describe(), p.Verdict.String(), csvNum(p.Util))
+				// the transmitter's worst over the same kind of case
+				if t := s.Tx.ByKind[k.Kind]; t.Case >= 0 {
+					row = append(row, csvNum(t.SWR), csvNum(real(t.Zin)), csvNum(imag(t.Zin)), csvNum(t.ReflW))
+				} else {
+					row = append(row, "", "", "", "")
+				}
 				cw.Write(csvSafeRow(row))
 			}
 			writeTolCSV(cw, s, p)

@@ -3,6 +3,7 @@ package reports
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"rfstress/circuits"
@@ -49,6 +50,19 @@ func (p *pdfw) verdictBox() {
 	}
 	if pw := auditedPower(b); pw != "" {
 		safe += " (audited at " + pw + ")"
+	}
+	// what the transmitter sees: the worst SWR over the bank
+	var tx *stress.Section
+	for _, s := range b.Sections {
+		if s.Tx.Worst.Case >= 0 && (tx == nil || s.Tx.Verdict > tx.Tx.Verdict || s.Tx.Verdict == tx.Tx.Verdict && s.Tx.Worst.SWR > tx.Tx.Worst.SWR) {
+			tx = s
+		}
+	}
+	if tx != nil {
+		safe += ". Transmitter: worst SWR " + FormatSWR(tx.Tx.Worst.SWR) + " at " + caseText(tx, tx.Tx.Worst.Case) + " in " + tx.File
+		if tx.Tx.Limit > 0 {
+			safe += " (tx-swr-max " + strconv.FormatFloat(tx.Tx.Limit, 'g', -1, 64) + ": " + tx.Tx.Verdict.String() + ")"
+		}
 	}
 	p.font("", 9.5)
 	safeLines := p.split(safe, bodyW-12)

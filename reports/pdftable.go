@@ -465,6 +465,16 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	}
 	p.para(8.5, fmt.Sprintf("%d cases audited; highest node voltage %s peak at node %s (%s)",
 		s.NumCases, circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, caseText(s, s.MaxNodeCase)))
+	if t := TxText(s); t != "" {
+		t = strings.ToUpper(t[:1]) + t[1:] + "."
+		if s.Tx.Verdict == ratings.Fail {
+			p.text(colInk)
+			p.para(8.5, t)
+			p.text(colMuted)
+		} else {
+			p.para(8.5, t)
+		}
+	}
 	p.text(colInk)
 	p.schematic(s)
 	if fp != nil && len(fp.Sweep) > 1 {
