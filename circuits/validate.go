@@ -50,6 +50,9 @@ func (p *parser) checkTouches() {
 	for _, pt := range []*Port{p.nl.In, p.nl.Out} {
 		if pt != nil {
 			ports[pt.Node] = true
+			if pt.Node2 != "" {
+				ports[pt.Node2] = true // a balanced port's second node
+			}
 		}
 	}
 	for n := range p.portNames {
