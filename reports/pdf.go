@@ -93,8 +93,22 @@ func WritePDF(w io.Writer, doc *ReportDoc) error {
 	if doc == nil || doc.Bank == nil {
 		return fmt.Errorf("report: nothing to report")
 	}
+	b, err := renderPDF(doc, true)
+	if err != nil {
+		return err
+	}
+	_, err = w.Write(b)
+	return err
+}
+
+// renderPDF lays out the report; with ownDeflate the page streams are
+// compressed by deflatePages instead of by gofpdf (same bytes, less work).
+func renderPDF(doc *ReportDoc, ownDeflate bool) ([]byte, error) {
 	p := newPDF(doc)
 	f := p.f
+	if ownDeflate {
+		f.SetCompression(false)
+	}
 	p.summary()
 	p.marginChart()
 	for i, s := range doc.Bank.Sections {
@@ -112,10 +126,14 @@ func WritePDF(w io.Writer, doc *ReportDoc) error {
 
 	var buf bytes.Buffer
 	if err := f.Output(&buf); err != nil {
-		return fmt.Errorf("report: %w", err)
+		return nil, fmt.Errorf("report: %w", err)
 	}
-	_, err := io.Copy(w, &buf)
-	return err
+	if ownDeflate {
+		if b, ok := deflatePages(buf.Bytes()); ok {
+			return b, nil
+		}
+	}
+	return buf.Bytes(), nil
 }
 
 // newPDF sets up an empty report document: fonts, dates, page furniture.
@@ -257,9 +275,27 @@ func (p *pdfw) width(s string) float64 { return p.f.GetStringWidth(clean(s)) }
 
 func (p *pdfw) font(style string, size float64) { p.f.SetFont(fontSans, style, size) }
 func (p *pdfw) mono(size float64)               { p.f.SetFont(fontCode, "", size) }
-func (p *pdfw) text(c rgb)                      { p.f.SetTextColor(c.r, c.g, c.b) }
-func (p *pdfw) fill(c rgb)                      { p.f.SetFillColor(c.r, c.g, c.b) }
-func (p *pdfw) draw(c rgb)                      { p.f.SetDrawColor(c.r, c.g, c.b) }
+
+// text, fill and draw set a colour unless it is already the current one:
+// gofpdf formats the colour operator on every call, and tables set the
+// same colour cell after cell.
+func (p *pdfw) text(c rgb) {
+	if r, g, b := p.f.GetTextColor(); r != c.r || g != c.g || b != c.b {
+		p.f.SetTextColor(c.r, c.g, c.b)
+	}
+}
+
+func (p *pdfw) fill(c rgb) {
+	if r, g, b := p.f.GetFillColor(); r != c.r || g != c.g || b != c.b {
+		p.f.SetFillColor(c.r, c.g, c.b)
+	}
+}
+
+func (p *pdfw) draw(c rgb) {
+	if r, g, b := p.f.GetDrawColor(); r != c.r || g != c.g || b != c.b {
+		p.f.SetDrawColor(c.r, c.g, c.b)
+	}
+}
 
 // room starts a new page unless h mm are left above the footer.
 func (p *pdfw) room(h float64) {

@@ -1,0 +1,117 @@
+package reports
+
+import (
+	"bytes"
+	"compress/zlib"
+	"fmt"
+	"regexp"
+	"sort"
+	"strconv"
+)
+
+// deflatePages compresses the page content streams of a PDF that gofpdf
+// wrote uncompressed, with one zlib writer reused for every page. gofpdf
+// compresses each page with a writer of its own, and allocating and
+// clearing that writer's tables costs more than the compression; done
+// here, at the same level (zlib.BestSpeed, gofpdf's), the bytes come out
+// exactly as gofpdf's own compression gives them (TestDeflatePagesAsGofpdf).
+//
+// It relies on the layout gofpdf writes (ISO 32000-1, 7.5): an object per
+// offset of the cross-reference table, a page's contents as
+// "N 0 obj\n<</Length L>>\nstream\n…\nendstream\nendobj\n", the table and
+// trailer at the end. When anything differs it reports false and the
+// caller keeps the document as it is: valid, only larger.
+func deflatePages(doc []byte) ([]byte, bool) {
+	// cross-reference table
+	sx := bytes.LastIndex(doc, []byte("startxref\n"))
+	if sx < 0 {
+		return nil, false
+	}
+	xo, err := strconv.Atoi(string(bytes.TrimSpace(bytes.TrimSuffix(bytes.TrimSpace(doc[sx+len("startxref\n"):]), []byte("%%EOF")))))
+	if err != nil || xo <= 0 || xo >= sx {
+		return nil, false
+	}
+	xref := doc[xo:sx]
+	var count int
+	if _, err := fmt.Sscanf(string(xref), "xref\n0 %d\n", &count); err != nil || count < 2 {
+		return nil, false
+	}
+	head := len(fmt.Sprintf("xref\n0 %d\n", count))
+	const entry = 20 // "0000012345 00000 n \n"
+	if len(xref) < head+count*entry {
+		return nil, false
+	}
+	trailer := xref[head+count*entry:]
+	if !bytes.HasPrefix(trailer, []byte("trailer\n")) {
+		return nil, false
+	}
+	offs := make([]int, count)
+	for j := 1; j < count; j++ {
+		e := xref[head+j*entry : head+(j+1)*entry]
+		o, err := strconv.Atoi(string(e[:10]))
+		if err != nil || string(e[10:]) != " 00000 n \n" || o <= 0 || o >= xo {
+			return nil, false
+		}
+		offs[j] = o
+	}
+	// which objects are page contents
+	contents := map[int]bool{}
+	for _, m := range contentsRef.FindAllSubmatch(doc[:xo], -1) {
+		n, _ := strconv.Atoi(string(m[1]))
+		contents[n] = true
+	}
+	order := make([]int, 0, count-1)
+	for j := 1; j < count; j++ {
+		order = append(order, j)
+	}
+	sort.Slice(order, func(a, b int) bool { return offs[order[a]] < offs[order[b]] })
+
+	out := bytes.NewBuffer(make([]byte, 0, len(doc)/2))
+	out.Write(doc[:offs[order[0]]])
+	newOffs := make([]int, count)
+	var zbuf bytes.Buffer
+	zw, _ := zlib.NewWriterLevel(&zbuf, zlib.BestSpeed)
+	for k, j := range order {
+		end := xo
+		if k+1 < len(order) {
+			end = offs[order[k+1]]
+		}
+		seg := doc[offs[j]:end]
+		newOffs[j] = out.Len()
+		if !contents[j] {
+			out.Write(seg)
+			continue
+		}
+		pre := fmt.Sprintf("%d 0 obj\n<</Length ", j)
+		if !bytes.HasPrefix(seg, []byte(pre)) {
+			return nil, false
+		}
+		rest := seg[len(pre):]
+		i := bytes.Index(rest, []byte(">>\nstream\n"))
+		if i < 0 {
+			return nil, false
+		}
+		l, err := strconv.Atoi(string(rest[:i]))
+		data := rest[i+len(">>\nstream\n"):]
+		if err != nil || len(data) != l+len("\nendstream\nendobj\n") || string(data[l:]) != "\nendstream\nendobj\n" {
+			return nil, false
+		}
+		zbuf.Reset()
+		zw.Reset(&zbuf)
+		zw.Write(data[:l])
+		zw.Close()
+		fmt.Fprintf(out, "%d 0 obj\n<</Filter /FlateDecode /Length %d>>\nstream\n", j, zbuf.Len())
+		out.Write(zbuf.Bytes())
+		out.WriteString("\nendstream\nendobj\n")
+	}
+	nx := out.Len()
+	fmt.Fprintf(out, "xref\n0 %d\n0000000000 65535 f \n", count)
+	for j := 1; j < count; j++ {
+		fmt.Fprintf(out, "%010d 00000 n \n", newOffs[j])
+	}
+	out.Write(trailer)
+	fmt.Fprintf(out, "startxref\n%d\n%%%%EOF\n", nx)
+	return out.Bytes(), true
+}
+
+var contentsRef = regexp.MustCompile(`/Contents (\d+) 0 R`)
