@@ -1,6 +1,9 @@
 package circuits
 
-import "math"
+import (
+	"math"
+	"strings"
+)
 
 // Capacitor: a two-terminal admittance, C with its loss as a series
 // resistance (from q=, esr= or df=, or a dielectric's typical Q).
@@ -23,13 +26,17 @@ var defaultCapQ = map[string]float64{
 	"x7r": 40, "x5r": 40, "y5v": 15, "z5u": 15,
 }
 
+// Dielectrics are the dielectric words a capacitor's dielectric= takes,
+// in any case.
+var Dielectrics = []string{"c0g", "np0", "mica", "porcelain", "film", "glass", "air", "vacuum", "x7r", "x5r", "y5v", "z5u"}
+
 // genericCapQ applies when no dielectric is named.
 const genericCapQ = 500
 
 // DefaultCapacitorQ returns the Q assumed for a capacitor of the given
 // dielectric class ("" for unknown) when the netlist gives no loss figure.
 func DefaultCapacitorQ(dielectric string) float64 {
-	if q, ok := defaultCapQ[dielectric]; ok {
+	if q, ok := defaultCapQ[strings.ToLower(dielectric)]; ok {
 		return q
 	}
 	return genericCapQ
@@ -85,7 +92,7 @@ var capacitorAttrs = map[string]AttrSpec{
 	"vrms":       {Type: TPositive, Units: []string{"V"}, Help: "rated RMS voltage in V"},
 	"irms":       {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A, optionally at a frequency: 4@10M"},
 	"pmax":       {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W"},
-	"dielectric": {Type: TWord, Help: "a dielectric class: c0g, np0, mica, porcelain, film, glass, air, vacuum, x7r, x5r, y5v, z5u"},
+	"dielectric": {Type: TWord, Choices: Dielectrics, Help: "a dielectric class: c0g, np0, mica, porcelain, film, glass, air, vacuum, x7r, x5r, y5v, z5u"},
 	"tol":        {Type: TPercent, Help: "value tolerance such as 5%"},
 	"qtol":       {Type: TPercent, Help: "Q tolerance such as 20%"},
 	"range":      {Type: TText, Help: "settings of a variable capacitor lo:hi, such as 20p:400p"},

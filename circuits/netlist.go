@@ -809,6 +809,17 @@ func readAttr(a *Attr, as AttrSpec) error {
 		if as.Type == TWord && len(a.Words) != 1 {
 			return fmt.Errorf("one word expected")
 		}
+		if len(as.Choices) > 0 {
+			w := strings.ToLower(a.Words[0])
+			known := false
+			for _, c := range as.Choices {
+				known = known || c == w
+			}
+			if !known {
+				return fmt.Errorf("unknown %s %s", a.Key, Quote(a.Words[0]))
+			}
+			a.Words[0] = w
+		}
 	case TNumbers:
 		for _, w := range strings.Split(s, ",") {
 			v, err := readNumber(w, as)

@@ -37,7 +37,10 @@ type AttrSpec struct {
 	NeedUnit bool
 	// Gauge lets a wire diameter be written as an AWG number ("18awg").
 	Gauge bool
-	Help  string // shown in "expected …" messages
+	// Choices, for a TWord, are the words allowed, read case-insensitively
+	// and kept in lower case, so every layer reads the same word.
+	Choices []string
+	Help    string // shown in "expected …" messages
 }
 
 // Keyword describes one statement of the netlist language.

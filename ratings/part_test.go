@@ -67,7 +67,7 @@ port out n2 z=50
 material wax class=plastic mu=1
 core t1 material=unobtainium od=10mm id=5mm h=4mm
 core t2 ae=10mm2 mu=10
-capacitor C1 n1 gnd 300p dielectric=teflon
+capacitor C1 n1 gnd 300p
 inductor L1 n1 n2 1u core=t1 turns=10
 inductor L2 n2 gnd 1u core=t2 turns=10
 `
@@ -85,7 +85,6 @@ inductor L2 n2 gnd 1u core=t2 turns=10
 		"bad.net:3:20: unknown material class \"plastic\"",
 		"bad.net:4:18: core t1: unknown material \"unobtainium\"",
 		"bad.net:5:6: core t2 (used by L2) has too little geometry (only ae=)",
-		"bad.net:6:37: capacitor C1: unknown dielectric \"teflon\"",
 	}
 	got := el.Error()
 	for _, w := range want {

@@ -263,6 +263,11 @@ func (c *Conditions) ApplyAll(settings []Setting) (circuits.ErrorList, []string)
 			c.AvgRatio = m.AvgRatio
 		}
 	}
+	// the square wave's series has a level at every odd order: cover
+	// every order audited, not only the 2nd to 9th
+	if c.Harmonics == "square" {
+		c.HarmonicDBc = squareDBc(max(9, c.HarmonicMax))
+	}
 	cerrs.Sort()
 	return cerrs, errs
 }
@@ -482,7 +487,7 @@ func (c *Conditions) Check() error {
 }
 
 // Carriers returns the carrier frequencies: the band points, then the
-// extra carriers.
+// extra carriers. One point across a band is the band's centre.
 func (c *Conditions) Carriers() []float64 {
 	var fs []float64
 	n := c.Points
@@ -490,7 +495,7 @@ func (c *Conditions) Carriers() []float64 {
 		n = 1
 	}
 	for i := 0; i < n; i++ {
-		f := c.BandLo
+		f := (c.BandLo + c.BandHi) / 2
 		if n > 1 {
 			f = c.BandLo + (c.BandHi-c.BandLo)*float64(i)/float64(n-1)
 		}

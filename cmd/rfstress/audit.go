@@ -337,7 +337,7 @@ type auditJob struct {
 }
 
 func failLevel(s string) (int, error) {
-	switch s {
+	switch strings.ToLower(s) {
 	case "unrated":
 		return int(ratings.Unrated), nil
 	case "marginal":

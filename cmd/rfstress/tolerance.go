@@ -46,6 +46,9 @@ func (t *tolFlags) check() error {
 	if t.trials < 0 || t.trials > 10_000_000 {
 		return usagef("--trials must be between 1 and 10000000")
 	}
+	if d := strings.ToLower(t.dist); d == "normal" || d == "uniform" {
+		t.dist = d
+	}
 	if t.dist != "normal" && t.dist != "uniform" {
 		return usagef("--dist %s: expected normal or uniform", circuits.Clip(t.dist))
 	}
