@@ -97,4 +97,6 @@ var capacitorAttrs = map[string]AttrSpec{
 	"qtol":       {Type: TPercent, Help: "Q tolerance such as 20%"},
 	"range":      {Type: TText, Help: "settings of a variable capacitor lo:hi, such as 20p:400p"},
 	"steps":      {Type: TText, Help: "a number of evenly spaced settings, or the settings: 8 or 10p,22p,47p"},
+	"gap":        gapAttr,
+	"medium":     mediumAttr,
 }

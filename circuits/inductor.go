@@ -51,15 +51,17 @@ func (e *Element) Inductance(f float64) float64 {
 }
 
 var inductorAttrs = map[string]AttrSpec{
-	"q":     {Type: TPoints, Help: "Q, or Q@frequency points such as 90@3.5M,180@10M"},
-	"core":  {Type: TWord, Help: "the name of a core statement"},
-	"turns": {Type: TInt, Help: "number of turns, a whole number"},
-	"wire":  {Type: TPositive, Units: lengthUnit, NeedUnit: true, Gauge: true, Help: "wire diameter with a unit, e.g. 0.8mm, or a gauge, e.g. 18awg"},
-	"irms":  {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A"},
-	"tol":   {Type: TPercent, Help: "value tolerance such as 5%"},
-	"qtol":  {Type: TPercent, Help: "Q tolerance such as 20%"},
-	"range": {Type: TText, Help: "settings of a variable inductor lo:hi, such as 1u:25u"},
-	"steps": {Type: TText, Help: "a number of evenly spaced settings (taps), or the settings: 12 or 2u,4u,8u"},
+	"q":      {Type: TPoints, Help: "Q, or Q@frequency points such as 90@3.5M,180@10M"},
+	"core":   {Type: TWord, Help: "the name of a core statement"},
+	"turns":  {Type: TInt, Help: "number of turns, a whole number"},
+	"wire":   {Type: TPositive, Units: lengthUnit, NeedUnit: true, Gauge: true, Help: "wire diameter with a unit, e.g. 0.8mm, or a gauge, e.g. 18awg"},
+	"irms":   {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A"},
+	"tol":    {Type: TPercent, Help: "value tolerance such as 5%"},
+	"qtol":   {Type: TPercent, Help: "Q tolerance such as 20%"},
+	"range":  {Type: TText, Help: "settings of a variable inductor lo:hi, such as 1u:25u"},
+	"steps":  {Type: TText, Help: "a number of evenly spaced settings (taps), or the settings: 12 or 2u,4u,8u"},
+	"gap":    gapAttr,
+	"medium": mediumAttr,
 }
 
 func (m inductorModel) Impedance(e *Element, f float64) complex128 {

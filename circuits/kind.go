@@ -56,6 +56,10 @@ type KindSpec struct {
 	// Check, when set, reports kind-specific input errors of a parsed
 	// statement (ranges, node rules) through errf.
 	Check func(c *Component, errf func(pos Pos, want, format string, args ...any))
+	// Observes marks a kind that joins nothing (a clearance): its nodes
+	// must be nodes other statements connect, it adds no node to the
+	// circuit and no path to ground.
+	Observes bool
 }
 
 var kindSpecs = map[Kind]*KindSpec{}

@@ -290,6 +290,17 @@ type parser struct {
 	touches   map[string][]string
 	kinds     map[string]Kind
 	portNames map[string]bool // nodes named by port lines, even faulty ones
+	// nodes named by kinds that join nothing (clearances), checked once
+	// every connecting statement is read
+	observed []observedNode
+}
+
+// observedNode is a node named by a kind that joins nothing.
+type observedNode struct {
+	part string
+	kind Kind
+	node string
+	pos  Pos
 }
 
 func (p *parser) errorf(pos Pos, want, format string, args ...any) {
@@ -584,6 +595,28 @@ func (p *parser) component(ln int, kind Kind, f []Field, attrs Attrs) {
 	for i, name := range layout {
 		switch name {
 		case "node":
+			if spec.Observes {
+				// a clearance names nodes; it must not create them
+				n, ok := f[i].Text, validName(f[i].Text)
+				switch {
+				case !ok:
+					p.errorf(p.pos(ln, f[i].Col), "a node name: "+namePattern, "bad node name %s", Quote(f[i].Text))
+				case groundSpelling(n):
+					p.errorf(p.pos(ln, f[i].Col), groundHint, "node %s looks like ground but is not the ground node", n)
+					ok = false
+				default:
+					p.observed = append(p.observed, observedNode{f[0].Text, kind, n, p.pos(ln, f[i].Col)})
+				}
+				for _, m := range nodes {
+					if ok && m == n {
+						p.errorf(p.pos(ln, f[i].Col), "two different nodes", "%s %s is connected to itself (both ends on %s)", kind, f[0].Text, n)
+						ok = false
+					}
+				}
+				nodesOK = nodesOK && ok
+				nodes = append(nodes, n)
+				continue
+			}
 			n, ok := p.useNode(f[i], ln)
 			nodesOK = nodesOK && ok
 			again := false
@@ -893,6 +926,12 @@ func (p *parser) check() {
 			}
 		}
 	}
+	for _, o := range p.observed {
+		if o.node != Ground && !p.nodeSeen[o.node] {
+			p.errorf(o.pos, "a node of the circuit that a part connects to, or "+Ground,
+				"%s %s names node %q, which no part connects to", o.kind, o.part, o.node)
+		}
+	}
 	for _, k := range nl.Couplings {
 		for i, ln := range []string{k.L1, k.L2} {
 			if kind, ok := p.partKind[ln]; ok && kind != Inductor {
@@ -914,6 +953,9 @@ func (p *parser) check() {
 		adj[b] = append(adj[b], a)
 	}
 	for _, c := range nl.Components {
+		if s := SpecOf(c.Kind); s != nil && s.Observes {
+			continue // joins nothing
+		}
 		ts := c.Terminals()
 		for _, t := range ts[1:] {
 			link(ts[0], t)

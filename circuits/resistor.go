@@ -26,9 +26,11 @@ func (m resistorModel) State(e *Element, x []complex128, f float64) PartState {
 func (m resistorModel) LossR(e *Element, f float64) float64 { return real(m.Impedance(e, f)) }
 
 var resistorAttrs = map[string]AttrSpec{
-	"pmax": {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W"},
-	"vpk":  {Type: TPositive, Units: []string{"V"}, Help: "maximum working peak voltage in V"},
-	"tol":  {Type: TPercent, Help: "value tolerance such as 5%"},
+	"pmax":   {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W"},
+	"vpk":    {Type: TPositive, Units: []string{"V"}, Help: "maximum working peak voltage in V"},
+	"tol":    {Type: TPercent, Help: "value tolerance such as 5%"},
+	"gap":    gapAttr,
+	"medium": mediumAttr,
 }
 
 func (resistorModel) Impedance(e *Element, f float64) complex128 {

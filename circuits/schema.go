@@ -105,5 +105,6 @@ var Keywords = map[string]Keyword{
 		"harmonic-max": {Type: TInt, Help: "highest harmonic order audited"},
 		"key-down":     {Type: TText, Help: "time at the mode's average power before the temperature is judged, such as 90s or 5m; steady for steady state"},
 		"tx-swr-max":   {Type: TNumber, Help: "highest SWR the transmitter may see, e.g. 2"},
+		"altitude":     {Type: TNumber, Units: lengthUnit, NeedUnit: true, Help: "altitude above sea level with a unit, e.g. 1500m: air pressure for clearances"},
 	}},
 }

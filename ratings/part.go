@@ -42,12 +42,16 @@ type Part struct {
 	Wire       float64 // diameter, m; 0 if not given
 	Area       float64 // cooling surface of the wound part, m²; 0 if unknown
 	WireLength float64 // m; 0 if unknown
-	Findings   []Finding
+	// Gap is the clearance between the part's terminals judged against
+	// breakdown (gap= on a part, or a clearance statement); nil if none.
+	Gap      *Clearance
+	Findings []Finding
 
 	vpk, vrms, pmax *circuits.Attr
 	irms            *circuits.Attr
 	prof            *Profile
 	line            *circuits.LineSpec // lines: loss against frequency, for the heating limit
+	air             *Atmosphere        // shared with the Set: where gaps are judged
 }
 
 // Set is every part of a netlist prepared for judging.
@@ -57,7 +61,13 @@ type Set struct {
 	Profile   *Profile
 	Materials map[string]*Material // built-in and file materials, netlist ones on top
 	Findings  []Finding            // about the netlist as a whole; part findings are on the parts
+	// Air is the atmosphere clearances are judged in (SeaLevel unless
+	// the audit says otherwise: SetAir).
+	Air *Atmosphere
 }
+
+// SetAir sets the atmosphere every clearance of the set is judged in.
+func (s *Set) SetAir(a Atmosphere) { *s.Air = a }
 
 var dielectricClass = map[string]string{
 	"c0g": ClassCapacitor1, "np0": ClassCapacitor1, "mica": ClassCapacitor1, "porcelain": ClassCapacitor1,
@@ -84,7 +94,8 @@ func Prepare(nl *circuits.Netlist, mats map[string]*Material, prof *Profile) (*S
 	if mats == nil {
 		mats = Builtin()
 	}
-	set := &Set{Parts: map[string]*Part{}, Profile: prof, Materials: map[string]*Material{}}
+	air := SeaLevel
+	set := &Set{Parts: map[string]*Part{}, Profile: prof, Materials: map[string]*Material{}, Air: &air}
 	for k, m := range mats {
 		if m != nil {
 			set.Materials[k] = m
@@ -126,6 +137,7 @@ func Prepare(nl *circuits.Netlist, mats map[string]*Material, prof *Profile) (*S
 	}
 	for _, c := range nl.Components {
 		p := preparePart(c, cores, prof, &errs)
+		p.air = set.Air
 		set.Parts[c.Name] = p
 		set.Order = append(set.Order, c.Name)
 	}
@@ -165,8 +177,44 @@ func preparePart(c *circuits.Component, cores map[string]*CoreInfo, prof *Profil
 		p.prepareLine(c)
 	case circuits.Block:
 		p.Class = ClassBlock
+	case circuits.Connector:
+		p.Class = ClassConnector
 	}
+	p.prepareGap(c, errs)
 	return p
+}
+
+// prepareGap reads gap= and medium= (a part's plate or lead spacing, or a
+// clearance statement).
+func (p *Part) prepareGap(c *circuits.Component, errs *circuits.ErrorList) {
+	g, ok := c.Attrs["gap"]
+	med := MediumAir
+	if a, has := c.Attrs["medium"]; has {
+		med = strings.ToLower(a.Words[0])
+		known := false
+		for _, m := range Media {
+			known = known || m == med
+		}
+		if !known {
+			*errs = append(*errs, &circuits.Error{Pos: a.ValPos, Want: "one of " + strings.Join(Media, ", "),
+				Msg: fmt.Sprintf("%s %s: unknown medium %q", c.Kind, c.Name, a.Words[0])})
+			return
+		}
+		if !ok {
+			*errs = append(*errs, &circuits.Error{Pos: a.Pos, Want: "gap= with medium=, e.g. gap=1.5mm medium=" + med,
+				Msg: fmt.Sprintf("%s %s: medium= without gap=", c.Kind, c.Name)})
+			return
+		}
+	}
+	if !ok {
+		return
+	}
+	if p.Dielectric == "vacuum" && med == MediumAir {
+		*errs = append(*errs, &circuits.Error{Pos: g.Pos, Want: "no gap= on a vacuum capacitor: its vpk= rating covers its plates",
+			Msg: fmt.Sprintf("capacitor %s: gap= judges an air gap, but its plates are in vacuum", c.Name)})
+		return
+	}
+	p.Gap = &Clearance{Gap: g.Num, Medium: med}
 }
 
 func (p *Part) warn(sev, format string, args ...any) {
@@ -312,8 +360,76 @@ func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 		if p.vpk != nil {
 			given(Vpk, p.vpk, p.Class)
 		}
+	case circuits.Connector:
+		given(Vpk, p.vpk, p.Class)
+		given(Irms, p.irms, p.Class)
+	}
+	if p.Gap != nil {
+		out = append(out, p.arcLimit(text))
 	}
 	return out
+}
+
+// Shows says whether the part carries stress of quantity q at all, so
+// that a connector shows no dissipation and a clearance only the voltage
+// across its gap.
+func (p *Part) Shows(q Quantity) bool {
+	switch {
+	case q == Arc:
+		return p.Gap != nil
+	case p.Kind == circuits.Clearance:
+		return false
+	case p.Kind == circuits.Connector:
+		return q == Vpk || q == Irms
+	}
+	return true
+}
+
+// AcrossNodes names the two nodes whose voltage difference the part's Vpk
+// is (its terminals), or ok false when Vpk is something else (a
+// connector's is centre to ground).
+func (p *Part) AcrossNodes(c *circuits.Component) (a, b string, ok bool) {
+	if p.Kind == circuits.Connector || c == nil || len(c.Terminals()) != 2 {
+		return "", "", false // a line's crest is along it, not across two nodes
+	}
+	return c.A, c.B, true
+}
+
+// Atmosphere is the air the part's clearance is judged in.
+func (p *Part) Atmosphere() Atmosphere {
+	if p.air == nil {
+		return SeaLevel
+	}
+	return *p.air
+}
+
+// arcLimit is the limit of the voltage across the part's clearance: for air
+// the voltage that would arc, for a board surface the working-voltage
+// guide; derated by the profile's gap class.
+func (p *Part) arcLimit(text bool) Limit {
+	g := p.Gap
+	a := p.Atmosphere()
+	fac := p.prof.Factor(g.Class(), Arc)
+	v := ClearanceLimit(g.Medium, g.Gap, a)
+	l := Limit{Quantity: Arc, Abs: v, Derated: v * fac, Factor: fac}
+	if !text {
+		return l
+	}
+	switch g.Medium {
+	case MediumAir:
+		l.Basis = fmt.Sprintf("air gap %s would arc at %s peak: Paschen breakdown %s (uniform field, p·d %.3g Torr·cm at %s) × %.2g for RF × %.2g for edges",
+			mmText(g.Gap), circuits.FormatSI(v, "V"), circuits.FormatSI(AirUniformBreakdown(a.PdTorrCm(g.Gap)), "V"),
+			a.PdTorrCm(g.Gap), a.Describe(), RFFactor, FieldFactor)
+	default:
+		per := BoardVpkPerMM
+		what := "a clean uncoated board surface"
+		if g.Medium == MediumCoated {
+			per, what = CoatedVpkPerMM, "a conformally coated board surface"
+		}
+		l.Basis = fmt.Sprintf("working-voltage guide %.0f V peak per mm along %s (creepage-style, common practice; IEC 60664-1 family) over %s; the same gap in air would arc at %s",
+			per, what, mmText(g.Gap), circuits.FormatSI(ArcVoltage(g.Gap, a), "V"))
+	}
+	return l
 }
 
 func attrName(q Quantity) string {
@@ -576,6 +692,12 @@ func (p *Part) Remedy(l Limit, stress float64, ctx RemedyContext) string {
 			return "more than 1 m of copper diameter: split the current"
 		}
 		return fmt.Sprintf("wire ≥ %.2f mm", d*1e3)
+	case Arc:
+		if p.Gap == nil {
+			break
+		}
+		d := p.GapNeeded(stress)
+		return fmt.Sprintf("gap ≥ %s %s (now %s) for the derated limit at %.0f m", mmUp(d), p.Gap.Medium, mmText(p.Gap.Gap), p.Atmosphere().Altitude)
 	}
 	_, text := BuyRating(l.Quantity, stress, l.Factor)
 	return text
@@ -721,6 +843,23 @@ func floorText(x float64, sig int) string {
 	}
 	p := math.Pow(10, float64(sig)-math.Ceil(math.Log10(x)))
 	return strconv.FormatFloat(math.Floor(x*p+1e-9)/p, 'f', -1, 64)
+}
+
+// GapNeeded is the clearance, in the part's medium, whose derated limit
+// holds a peak voltage v (m); 0 without a gap.
+func (p *Part) GapNeeded(v float64) float64 {
+	if p.Gap == nil {
+		return 0
+	}
+	return GapFor(p.Gap.Medium, v, p.prof.Factor(p.Gap.Class(), Arc), p.Atmosphere())
+}
+
+// mmUp renders a gap rounded up to the next 0.1 mm.
+func mmUp(d float64) string {
+	if math.IsInf(d, 1) {
+		return "more than 10 m"
+	}
+	return fmt.Sprintf("%.1f mm", math.Ceil(d*1e4-1e-9)/10)
 }
 
 // AllFindings returns the findings of every part and of the netlist as a

@@ -22,6 +22,9 @@ const (
 	ClassResistor     = "resistor"
 	ClassLine         = "line"  // transmission line: dielectric and heating
 	ClassBlock        = "block" // measured two-port: its ports' voltage and its dissipation
+	ClassConnector    = "connector"
+	ClassGapAir       = "gap-air"   // an air clearance, against the voltage that would arc
+	ClassGapBoard     = "gap-board" // a board-surface clearance, against a working-voltage guide
 )
 
 // classQuantities says which quantities each derating class may carry a
@@ -36,6 +39,9 @@ var classQuantities = map[string][]Quantity{
 	ClassResistor:     {Pdiss, Vpk},
 	ClassLine:         {Vpk, Pm},
 	ClassBlock:        {Vpk, Pdiss},
+	ClassConnector:    {Vpk, Irms},
+	ClassGapAir:       {Arc},
+	ClassGapBoard:     {Arc},
 }
 
 // Profile is a set of derating factors: the share of each absolute rating a
@@ -63,7 +69,11 @@ func (p *Profile) Factor(class string, q Quantity) float64 {
 // in the spirit of NASA EEE-INST-002 and ECSS-Q-ST-30-11, not copied from
 // them: class I and air dielectrics are trusted more than class II ones,
 // resistors run at half their power, and "strict" is never looser than
-// "standard" anywhere.
+// "standard" anywhere. An air gap keeps 30 % below the voltage that would
+// arc (humidity, dust, an edge sharper than assumed); a board surface's
+// working-voltage guide already holds its margin, so standard uses it as
+// it is. Connectors' ratings are working values; 0.8 leaves room for
+// wear and contamination of the contacts.
 var builtinProfiles = map[string]*Profile{
 	"standard": {Name: "standard", TempMargin: 15, Factors: map[string]map[Quantity]float64{
 		ClassCapacitor1:   {Vpk: 0.6, Vrms: 0.6, Irms: 0.7, Pdiss: 0.6},
@@ -75,6 +85,9 @@ var builtinProfiles = map[string]*Profile{
 		ClassResistor:     {Pdiss: 0.5, Vpk: 0.8},
 		ClassLine:         {Vpk: 0.6, Pm: 0.8},
 		ClassBlock:        {Vpk: 0.6, Pdiss: 0.6},
+		ClassConnector:    {Vpk: 0.8, Irms: 0.8},
+		ClassGapAir:       {Arc: 0.7},
+		ClassGapBoard:     {Arc: 1},
 	}},
 	"strict": {Name: "strict", TempMargin: 25, Factors: map[string]map[Quantity]float64{
 		ClassCapacitor1:   {Vpk: 0.5, Vrms: 0.5, Irms: 0.6, Pdiss: 0.5},
@@ -86,6 +99,9 @@ var builtinProfiles = map[string]*Profile{
 		ClassResistor:     {Pdiss: 0.4, Vpk: 0.7},
 		ClassLine:         {Vpk: 0.5, Pm: 0.7},
 		ClassBlock:        {Vpk: 0.5, Pdiss: 0.5},
+		ClassConnector:    {Vpk: 0.7, Irms: 0.7},
+		ClassGapAir:       {Arc: 0.6},
+		ClassGapBoard:     {Arc: 0.8},
 	}},
 }
 
@@ -128,7 +144,7 @@ func (p *Profile) clone() *Profile {
 
 // Classes lists the derating classes in a fixed order.
 func Classes() []string {
-	return []string{ClassCapacitor1, ClassCapacitor2, ClassCapacitorAir, ClassCapacitor, ClassInductor, ClassCore, ClassResistor, ClassLine, ClassBlock}
+	return []string{ClassCapacitor1, ClassCapacitor2, ClassCapacitorAir, ClassCapacitor, ClassInductor, ClassCore, ClassResistor, ClassLine, ClassBlock, ClassConnector, ClassGapAir, ClassGapBoard}
 }
 
 // LoadProfile returns a built-in profile by name (standard, strict, none)

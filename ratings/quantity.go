@@ -31,16 +31,17 @@ const (
 	Temp  Quantity = "temp"  // absolute temperature of the wound core, °C
 	Jrms  Quantity = "jrms"  // RMS current density on the wire's conducting area, A/m²
 	// Pm is a line's dissipation per metre at its hottest point, W/m.
-	Pm Quantity = "pm"
+	Pm  Quantity = "pm"
+	Arc Quantity = "arc" // peak voltage across a clearance (gap=, clearance statement), V
 )
 
 // Quantities lists every quantity in report order.
-var Quantities = []Quantity{Vpk, Vrms, Irms, Pdiss, Bpk, Bavg, Temp, Jrms, Pm}
+var Quantities = []Quantity{Vpk, Vrms, Irms, Pdiss, Bpk, Bavg, Temp, Jrms, Pm, Arc}
 
 // Unit is the SI unit a quantity is measured in.
 func (q Quantity) Unit() string {
 	switch q {
-	case Vpk, Vrms:
+	case Vpk, Vrms, Arc:
 		return "V"
 	case Irms:
 		return "A"
@@ -203,6 +204,8 @@ func BuyRating(q Quantity, stress, factor float64) (value float64, text string) 
 		return 0, "current density " + formatDensity(stress) + ": thicker wire (or stranded/strip conductor)"
 	case Pm:
 		return 0, "hottest metre dissipates " + circuits.FormatSI(stress, "W/m") + ": a line of lower loss or higher power rating, or a lower SWR on it"
+	case Arc:
+		return 0, "peak " + circuits.FormatSI(stress, "V") + " across the gap: a wider gap (Part.Remedy gives the figure)"
 	}
 	return 0, "—"
 }

@@ -29,6 +29,8 @@ func unitOf(q ratings.Quantity) string {
 		return "A/mm²"
 	case ratings.Pm:
 		return "W/m"
+	case ratings.Arc:
+		return "V"
 	}
 	return ""
 }
@@ -54,6 +56,8 @@ func QuantityLabel(q ratings.Quantity) string {
 		return "current density"
 	case ratings.Pm:
 		return "hottest metre"
+	case ratings.Arc:
+		return "clearance voltage"
 	}
 	return string(q)
 }
@@ -86,7 +90,8 @@ func pct(u float64) string {
 	return strconv.FormatFloat(100*u, 'f', 0, 64) + " %"
 }
 
-// ValueText renders a part's value with its unit.
+// ValueText renders a part's value with its unit ("" for kinds that have
+// no value, such as connectors and clearances).
 func ValueText(k circuits.Kind, v float64) string {
 	switch k {
 	case circuits.Capacitor:
@@ -95,8 +100,43 @@ func ValueText(k circuits.Kind, v float64) string {
 		return circuits.FormatSI(v, "H")
 	case circuits.Line:
 		return circuits.FormatSI(v, "m") // a line's value is its length
+	case circuits.Resistor:
+		return circuits.FormatSI(v, "Ω")
 	}
-	return circuits.FormatSI(v, "Ω")
+	if v == 0 {
+		return ""
+	}
+	return circuits.FormatSI(v, "")
+}
+
+// hasGaps says whether any part of the section declares a clearance.
+func hasGaps(s *stress.Section) bool {
+	for _, p := range s.Parts {
+		if p.Clearance != nil {
+			return true
+		}
+	}
+	return false
+}
+
+// GapText renders a part's declared clearance: "2 mm air" ("" if none).
+func GapText(p *stress.PartResult) string {
+	c := p.Clearance
+	if c == nil {
+		return ""
+	}
+	return strconv.FormatFloat(c.Gap*1e3, 'g', 3, 64) + " mm " + c.Medium
+}
+
+// peakText is the part's worst peak voltage: across it, or for a
+// clearance across the gap.
+func peakText(p *stress.PartResult) string {
+	for _, q := range []ratings.Quantity{ratings.Vpk, ratings.Arc} {
+		if st, ok := p.Stress[q]; ok {
+			return FormatQ(q, st.Value)
+		}
+	}
+	return ""
 }
 
 // ConditionsText summarises the conditions of a section in lines.
@@ -147,7 +187,7 @@ func ConditionsText(c stress.Conditions) []string {
 		h = c.Harmonics + " (dBc " + strings.Join(lv, " ") + ")"
 	}
 	lines = append(lines, "harmonics "+h)
-	lines = append(lines, fmt.Sprintf("derating %s, ambient %s °C", c.Derate, num(c.Ambient, 0)))
+	lines = append(lines, fmt.Sprintf("derating %s, ambient %s °C, altitude %s m", c.Derate, num(c.Ambient, 0), num(c.Altitude, 0)))
 	return lines
 }
 
@@ -227,7 +267,7 @@ func VerdictWords(v ratings.Verdict) string {
 	return "FAIL — some parts exceed their ratings"
 }
 
-var shown = []ratings.Quantity{ratings.Vpk, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp}
+var shown = []ratings.Quantity{ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp}
 
 func writeSectionText(w io.Writer, s *stress.Section, width int) {
 	fmt.Fprintln(w)
@@ -243,7 +283,12 @@ func writeSectionText(w io.Writer, s *stress.Section, width int) {
 	t.leftLast = true
 	t.maxWidth = width
 	for _, p := range s.Parts {
-		cells := []string{p.Name, ValueText(p.Kind, p.Value)}
+		value := ValueText(p.Kind, p.Value)
+		if value == "" {
+			value = GapText(p) // a clearance: its gap is its value
+		}
+		cells := []string{p.Name, value}
+		cells = append(cells, peakText(p))
 		for _, q := range shown {
 			if st, ok := p.Stress[q]; ok {
 				cells = append(cells, FormatQ(q, st.Value))
@@ -273,6 +318,7 @@ func writeSectionText(w io.Writer, s *stress.Section, width int) {
 			wrapLine(w, width, fmt.Sprintf("   %-8s %-8s ", name, f.Severity), "        ", f.Text)
 		}
 	}
+	writeClearanceText(w, s, width)
 	writeTolText(w, s)
 	safe := "safe power " + FormatPower(s.SafeW)
 	if !math.IsInf(s.SafeW, 1) {
@@ -314,6 +360,60 @@ func TxText(s *stress.Section) string {
 		text += "; not judged (no tx-swr-max)"
 	}
 	return text
+}
+
+// writeClearanceText is the table of declared clearances: gap, worst peak
+// voltage across it, the voltage at which it would arc in air, the derated
+// limit, its use, the gap that limit needs, and the verdict.
+func writeClearanceText(w io.Writer, s *stress.Section, width int) {
+	if !hasGaps(s) {
+		return
+	}
+	fmt.Fprintln(w)
+	wrapLine(w, width, "   ", "     ", fmt.Sprintf("clearances (air at %s m, %s kPa, %s °C):", num(s.Air.Altitude, 0), num(s.AirPressure/1e3, 1), num(s.Air.Ambient, 0)))
+	t := newTable("part", "gap", "peak V", "arcs at", "derated", "use", "gap needed", "verdict")
+	t.maxWidth = width
+	for _, p := range s.Parts {
+		c := p.Clearance
+		if c == nil {
+			continue
+		}
+		st := p.Stress[ratings.Arc]
+		t.row(p.Name, GapText(p), circuits.FormatSI(c.Vpk, "V"), circuits.FormatSI(c.ArcV, "V"),
+			circuits.FormatSI(c.Derated, "V"), pct(st.Util), mmText(c.Needed), st.Verdict.String())
+	}
+	t.write(w)
+}
+
+// ClearanceLines describes each declared clearance of a section: its worst
+// peak voltage, the voltage at which it would arc, its derated limit and
+// the gap that limit needs.
+func ClearanceLines(s *stress.Section) []string {
+	var out []string
+	for _, p := range s.Parts {
+		c := p.Clearance
+		if c == nil {
+			continue
+		}
+		l := fmt.Sprintf("%-8s %s: %s peak; in air would arc at %s", p.Name, GapText(p), circuits.FormatSI(c.Vpk, "V"), circuits.FormatSI(c.ArcV, "V"))
+		if c.Medium != ratings.MediumAir {
+			l += "; working guide " + circuits.FormatSI(c.Limit, "V")
+		}
+		l += fmt.Sprintf("; derated limit %s; gap for it %s", circuits.FormatSI(c.Derated, "V"), mmText(c.Needed))
+		out = append(out, l)
+	}
+	if len(out) > 0 {
+		out = append(out, fmt.Sprintf("(air at %s m, %s kPa, %s °C)", num(s.Air.Altitude, 0), num(s.AirPressure/1e3, 1), num(s.Air.Ambient, 0)))
+	}
+	return out
+}
+
+// mmText renders a gap in millimetres, to 0.01 mm.
+func mmText(d float64) string {
+	if !finite(d) {
+		return "—"
+	}
+	return strconv.FormatFloat(d*1e3, 'f', 2, 64) + " mm"
 }
 
 // AllFindings lists the section's findings and then each part's, in

@@ -30,6 +30,7 @@ type PerQuantity[T comparable] struct {
 	Temp  T `json:"temp_c,omitempty"`
 	Jrms  T `json:"jrms,omitempty"`
 	Pm    T `json:"pm_w_per_m,omitempty"`
+	Arc   T `json:"arc,omitempty"`
 }
 
 func (s *PerQuantity[T]) set(q ratings.Quantity, v T) {
@@ -52,6 +53,8 @@ func (s *PerQuantity[T]) set(q ratings.Quantity, v T) {
 		s.Jrms = v
 	case ratings.Pm:
 		s.Pm = v
+	case ratings.Arc:
+		s.Arc = v
 	}
 }
 
@@ -90,10 +93,11 @@ type JSONComponent struct {
 	Limits      []JSONLimit `json:"limits"`
 	// Binding is the rated quantity that binds; CoreBinding says which
 	// core limit binds in words
-	Binding     string    `json:"binding,omitempty"`
-	CoreBinding string    `json:"core_binding,omitempty"`
-	Heat        *JSONHeat `json:"heat,omitempty"`
-	Findings    []string  `json:"findings,omitempty"`
+	Binding     string         `json:"binding,omitempty"`
+	CoreBinding string         `json:"core_binding,omitempty"`
+	Heat        *JSONHeat      `json:"heat,omitempty"`
+	Clearance   *JSONClearance `json:"clearance,omitempty"`
+	Findings    []string       `json:"findings,omitempty"`
 }
 
 // JSONHeat is a wound core's first-order thermal state at its hottest case.
@@ -103,6 +107,17 @@ type JSONHeat struct {
 	KeyDownS        *float64 `json:"key_down_s"` // null: steady state
 	SteadyC         *float64 `json:"steady_c"`
 	JudgedC         *float64 `json:"judged_c"`
+}
+
+// JSONClearance is a part's declared clearance judged against breakdown.
+type JSONClearance struct {
+	GapM       float64  `json:"gap_m"`
+	Medium     string   `json:"medium"`
+	VpkV       *float64 `json:"vpk_v"`
+	ArcV       *float64 `json:"arc_v"`   // in air the gap would arc at this peak voltage
+	LimitV     *float64 `json:"limit_v"` // judged against, before derating
+	DeratedV   *float64 `json:"derated_v"`
+	GapNeededM *float64 `json:"gap_needed_m"` // for the derated limit
 }
 
 // JSONLimiting names what sets the safe power.
@@ -134,6 +149,9 @@ type JSONSection struct {
 	SWR           float64      `json:"swr"`
 	Harmonics     string       `json:"harmonics"`
 	MaxNodeVpk    float64      `json:"max_node_vpk"`
+	AltitudeM     float64      `json:"altitude_m"`
+	AirPressurePa float64      `json:"air_pressure_pa"`
+	ArcCheckV     *float64     `json:"arc_check_1mm_v"`
 	// what the transmitter sees, worst over every case
 	TxSWRWorst *float64       `json:"tx_swr_worst"`
 	TxZinWorst *JSONZ         `json:"tx_zin_worst"`
@@ -180,7 +198,8 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 			Drive: s.Conditions.Drive, Derate: s.Conditions.Derate, AmbientC: s.Conditions.Ambient,
 			Faults: append([]string{}, s.Conditions.Faults...), CarrierAlsoHz: append([]float64{}, s.Conditions.CarrierAlso...),
 			BandLoHz: s.Conditions.BandLo, BandHiHz: s.Conditions.BandHi, SWR: s.Conditions.SWR,
-			Harmonics: s.Conditions.Harmonics, MaxNodeVpk: s.MaxNodeVpk}
+			Harmonics: s.Conditions.Harmonics, MaxNodeVpk: s.MaxNodeVpk,
+			AltitudeM: s.Conditions.Altitude, AirPressurePa: s.AirPressure, ArcCheckV: jsonNum(s.ArcCheckV)}
 		for _, f := range s.Findings {
 			js.Findings = append(js.Findings, f.Part+": "+f.Text)
 		}
@@ -231,6 +250,10 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 				}
 				jc.Limits = append(jc.Limits, jl)
 			}
+			if c := p.Clearance; c != nil {
+				jc.Clearance = &JSONClearance{GapM: c.Gap, Medium: c.Medium, VpkV: jsonNum(c.Vpk), ArcV: jsonNum(c.ArcV),
+					LimitV: jsonNum(c.Limit), DeratedV: jsonNum(c.Derated), GapNeededM: jsonNum(c.Needed)}
+			}
 			for _, f := range p.Findings {
 				jc.Findings = append(jc.Findings, f.Severity+": "+f.Text)
 			}
@@ -247,7 +270,7 @@ func WriteAuditJSON(w io.Writer, doc *JSONAudit) error { return writeJSON(w, doc
 // header.
 func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 	cw := csv.NewWriter(w)
-	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "bavg_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "vpk_case", "irms_case", "part_verdict", "part_utilization", "tx_swr", "tx_zin_re_ohm", "tx_zin_im_ohm", "tx_reflected_w"})
+	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "bavg_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "arc_v", "vpk_case", "irms_case", "part_verdict", "part_utilization", "tx_swr", "tx_zin_re_ohm", "tx_zin_im_ohm", "tx_reflected_w"})
 	for _, s := range b.Sections {
 		for _, p := range s.Parts {
 			for _, k := range p.ByKind {

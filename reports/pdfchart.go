@@ -35,6 +35,7 @@ const (
 type bar struct {
 	part string
 	st   *stress.Stress
+	gap  string // the clearance, for a clearance bar
 }
 
 // marginChart draws one bar per part and rated quantity: the worst stress
@@ -62,7 +63,11 @@ func (p *pdfw) marginChart() {
 					continue // the heating guide is advice: shown in the core table
 				}
 				if st.Limit.Abs > 0 {
-					bars = append(bars, bar{pr.Name, st})
+					b := bar{part: pr.Name, st: st}
+					if q == ratings.Arc {
+						b.gap = GapText(pr)
+					}
+					bars = append(bars, b)
 				} else if st.Verdict != ratings.OK {
 					u := pr.Name + " " + QuantityLabel(q) + " " + FormatQ(q, st.Value) + " — no rating: needs " +
 						strings.TrimPrefix(UpgradeText(stress.Upgrade{Stress: st}), "rated ") + " (" + st.Limit.Basis + ")"
@@ -206,7 +211,11 @@ func (p *pdfw) barRow(y float64, b bar) {
 	p.cellAt(marginL+1, y, nw, chartRowH, b.part, "L")
 	p.font("", 7.2)
 	p.text(colMuted)
-	p.cellAt(marginL+1+nw, y, chartLabelW-nw-2, chartRowH, p.fit(QuantityLabel(q), chartLabelW-nw-3), "L")
+	label := QuantityLabel(q)
+	if b.gap != "" {
+		label = "gap " + b.gap
+	}
+	p.cellAt(marginL+1+nw, y, chartLabelW-nw-2, chartRowH, p.fit(label, chartLabelW-nw-3), "L")
 	p.text(colInk)
 	trackTop := y + (chartRowH-chartTrackH)/2
 	p.fill(colFaint)

@@ -30,6 +30,13 @@ func (p *pdfw) method() {
 		"Core temperature is ambient plus a still-air rise from the average dissipation and wound surface, ΔT ≈ (P[mW]/A[cm²])^0.833 (common practice), reached in time as a first-order system: ΔT(t) = ΔT_final·(1 − e^(−t/τ)), τ = R_th·C_th, the heat capacity from the core's and the winding's mass (densities and specific heats from memory). The default is steady state; a key-down time or a keyed mode (on for a set part of a period) changes it. Its use is rise over allowed rise.",
 		"A stress up to the derated limit (rating × derating factor) is ok, up to the rating marginal, past the rating a failure; a stressed quantity that has no rating is unrated. The safe power is the PEP at which the first rated quantity meets its derated limit: voltages, currents and flux grow with √P, dissipation with P, temperature rise through the thermal model; the heating guide never sets it. Ratings to buy are rounded up to common series (capacitor working voltages, the R10 preferred numbers for currents, usual resistor wattages).",
 	)
+	p.bullets("Clearances and arcing",
+		"Each declared clearance (gap= on a part: plate or lead spacing; or a clearance statement between two nodes) is judged against the worst peak voltage between its two nodes over every case, harmonics added as peaks add.",
+		fmt.Sprintf("Air: the uniform-field breakdown of the gap from Paschen's law for air, at the reduced p·d of the gap with the ISO 2533 standard-atmosphere pressure at the audit's altitude and the air at ambient temperature, times %.2g for RF (ion space charge lowers the breakdown of millimetre gaps at HF) and %.2g for the edges of plates and leads (common practice, from memory). That is the voltage that would arc; the profile derates it.", ratings.RFFactor, ratings.FieldFactor),
+		fmt.Sprintf("Board surfaces: a creepage-style working voltage of %.0f V peak per mm for a clean uncoated board and %.0f V peak per mm under conformal coating (our own round figures, common practice from memory, in the spirit of the IEC 60664-1 family's tables, not copied from them).", ratings.BoardVpkPerMM, ratings.CoatedVpkPerMM),
+		"Every node's peak to ground and every part's peak across it is compared with the voltage at which a typical 1 mm air gap would arc; where it is higher and no clearance is declared for that pair of nodes, a finding says where to look.",
+		"A connector is a series part of zero length: its peak voltage is its centre conductor's to ground (the shell), its current the current through it.",
+	)
 	p.profiles()
 	p.bullets("Published sources used",
 		"C.-W. Ho, A. E. Ruehli, P. A. Brennan, “The modified nodal approach to network analysis”, IEEE Transactions on Circuits and Systems, 1975: the circuit equations.",
@@ -40,11 +47,14 @@ func (p *pdfw) method() {
 		"The transformer EMF equation, relating winding voltage, turns, core area and flux density.",
 		"K. Kurokawa, “Power waves and the scattering matrix”, IEEE Transactions on Microwave Theory and Techniques, 1965: the load circle.",
 		"ISO 3 preferred numbers (R10): current ratings to buy.",
+		"ISO 2533 (ICAO) standard atmosphere: air pressure at altitude.",
+		"Paschen's law in Townsend's form, with A, B and γ for air from Yu. P. Raizer, Gas Discharge Physics, 1991; the empirical uniform-field breakdown of air from E. Kuffel, W. S. Zaengl, J. Kuffel, High Voltage Engineering: Fundamentals, 2000; RF breakdown discussed in J. M. Meek, J. D. Craggs, Electrical Breakdown of Gases, 1978.",
+		"IEC 60664-1: the family of creepage and clearance tables behind the board-surface guides (not copied).",
 		"Touchstone File Format Specification 2.0: the sweep export.",
 		"reproducible-builds.org, SOURCE_DATE_EPOCH specification: the report's date.",
 	)
 	p.bullets("What the estimate does not cover",
-		"Arcing across board gaps, switch and relay contacts (including switching while transmitting), and corona.",
+		"Arcing across gaps the netlist does not declare (beyond the 1 mm check of every node and part), across switch and relay contacts (including switching while transmitting), tracking of dirty or damp boards, and corona.",
 		"Self-resonance and parasitic inductance and capacitance of parts and wiring, unless they are modelled in the netlist.",
 		"Drift of part values with temperature and voltage; heat flowing between parts, and core loss beyond what the Q figures say (hence the heating guide).",
 		"Intermodulation and any non-linear part; RF exposure and specific absorption rate (SAR) near antennas; mains and high-voltage supplies.",
@@ -57,7 +67,7 @@ func (p *pdfw) method() {
 
 // profileQ are the quantities a derating profile can carry factors for,
 // in the order printed.
-var profileQ = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Jrms, ratings.Pm}
+var profileQ = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Jrms, ratings.Pm, ratings.Arc}
 
 // profiles prints each derating profile used, once.
 func (p *pdfw) profiles() {
@@ -79,7 +89,7 @@ func (p *pdfw) profiles() {
 		for _, q := range profileQ {
 			titles = append(titles, QuantityLabel(q))
 		}
-		cols := widths(titles, []float64{22, 11, 11, 11, 11, 13, 13, 12}, "LRRRRRRR")
+		cols := widths(titles, []float64{20, 10, 10, 10, 10, 12, 12, 11, 12}, "LRRRRRRRR")
 		var rows []trow
 		for _, class := range ratings.Classes() {
 			m, ok := pr.Factors[class]

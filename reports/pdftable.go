@@ -319,12 +319,22 @@ func widths(titles []string, rel []float64, align string) []tcol {
 // stresses, and under it every quantity with the case that produced it,
 // its rating and basis, use of the derated limit and verdict.
 func (p *pdfw) partTable(s *stress.Section) {
-	shownQ := []ratings.Quantity{ratings.Vpk, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp}
-	titles := []string{"part", "value", "peak V", "RMS I", "dissipation", "flux", "temp.", "use", "verdict"}
-	cols := widths(titles, []float64{13, 15, 15, 14, 15, 14, 12, 12, 17}, "LLRRRRRRL")
+	shownQ := []ratings.Quantity{ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp}
+	gaps := hasGaps(s)
+	titles := []string{"part", "value", "gap", "peak V", "RMS I", "dissipation", "flux", "temp.", "use", "verdict"}
+	rel, align := []float64{12, 14, 14, 14, 13, 15, 13, 11, 11, 17}, "LLLRRRRRRL"
+	if !gaps {
+		titles = append(titles[:2:2], titles[3:]...)
+		rel, align = []float64{13, 15, 15, 14, 15, 14, 12, 12, 17}, "LLRRRRRRL"
+	}
+	cols := widths(titles, rel, align)
 	var rows []trow
 	for _, pr := range s.Parts {
 		r := trow{cells: []tcell{{s: pr.Name, bold: true}, tc(ValueText(pr.Kind, pr.Value))}}
+		if gaps {
+			r.cells = append(r.cells, tc(GapText(pr)))
+		}
+		r.cells = append(r.cells, tc(peakText(pr)))
 		for _, q := range shownQ {
 			if st, ok := pr.Stress[q]; ok {
 				r.cells = append(r.cells, tc(FormatQ(q, st.Value)))
@@ -498,6 +508,13 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	p.room(5)
 	p.f.SetX(marginL)
 	p.multi(bodyW, 4.4, safe)
+	if cl := ClearanceLines(s); len(cl) > 0 {
+		p.sub("Clearances", 20)
+		p.para(8, "Each declared gap against the worst peak voltage between its nodes: the voltage at which it would arc in air, the derated limit it is judged against, and the gap that limit needs.")
+		for _, l := range cl {
+			p.bullet(8, l)
+		}
+	}
 	p.findings(s)
 	p.tolerance(s)
 }

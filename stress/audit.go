@@ -11,7 +11,7 @@ import (
 )
 
 // Quantities audited per part, in report order.
-var Quantities = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Bavg, ratings.Temp, ratings.Jrms, ratings.Pm}
+var Quantities = []ratings.Quantity{ratings.Vpk, ratings.Vrms, ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Bavg, ratings.Temp, ratings.Jrms, ratings.Pm, ratings.Arc}
 
 // CaseKind says what terminates the antenna port in a case.
 type CaseKind int
@@ -99,6 +99,24 @@ type PartResult struct {
 	// power, else the one nearest its limit ("" when none is rated).
 	Binding ratings.Quantity
 	Heat    *Heat // thermal figures of a wound core; nil otherwise
+	// Clearance is the part's gap judged against breakdown (nil if it
+	// declares none), with the figures the reports show.
+	Clearance *ClearanceResult
+}
+
+// ClearanceResult is a clearance's judgement in figures.
+type ClearanceResult struct {
+	Gap    float64 // m
+	Medium string
+	// ArcV is the peak voltage at which the gap would arc in air (for a
+	// board surface: the same gap through air, which the surface does
+	// not exceed); Limit the voltage it is judged against before
+	// derating (ArcV for air, the working-voltage guide for boards).
+	ArcV    float64
+	Limit   float64
+	Derated float64
+	Vpk     float64 // worst peak voltage across it
+	Needed  float64 // gap for the derated limit at Vpk, m
 }
 
 // Engine holds what an audit reuses across tolerance trials: the circuit,
@@ -160,10 +178,19 @@ func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, 
 		}
 		e.rparts = append(e.rparts, rp)
 	}
+	if rs != nil && rs.Air != nil {
+		rs.SetAir(e.Air())
+	}
 	for _, f := range e.carriers {
 		e.lims = append(e.lims, e.limitsAt(f))
 	}
 	return e, nil
+}
+
+// Air is the atmosphere clearances are judged in: the altitude's standard
+// pressure, the air at the ambient temperature.
+func (e *Engine) Air() ratings.Atmosphere {
+	return ratings.Atmosphere{Altitude: e.Cond.Altitude, Ambient: e.Cond.Ambient}
 }
 
 func (e *Engine) phaseAngle(k int) float64 {
@@ -220,7 +247,7 @@ func classOf(k CaseKind) int {
 	return hNormal
 }
 
-const nQ = 9
+const nQ = 10
 
 const (
 	qVpk = iota
@@ -232,6 +259,7 @@ const (
 	qTemp
 	qJrms
 	qPm
+	qArc
 )
 
 // accum is the running worst of one part.
@@ -276,6 +304,9 @@ type workspace struct {
 	pmH   [nClass][]float64 // lines: Σ over harmonics of the hottest metre's dissipation
 	lim   []partLimits
 	acc   []accum
+	// worst peak of each node to ground over the run, and its case
+	nodePk     []float64
+	nodePkCase []int
 	// record makes exact circle worst cases into cases of their own
 	// (extra, indexed from NumCases()); only the nominal audit records
 	record bool
@@ -287,6 +318,7 @@ type workspace struct {
 
 // partLimits caches one part's limits at the current carrier.
 type partLimits struct {
+	hide      [nQ]bool    // quantities the part does not carry (a connector's dissipation)
 	derated   [nQ]float64 // 0: no limit
 	absRatio  [nQ]float64 // rating / derated limit (1/factor); for temp, of the allowed rises
 	advice    [nQ]bool    // a guide, not a rating
@@ -311,6 +343,8 @@ func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 		w.nodeH[k] = make([]float64, len(c.Nodes))
 		w.pmH[k] = make([]float64, n)
 	}
+	w.nodePk = make([]float64, len(c.Nodes))
+	w.nodePkCase = make([]int, len(c.Nodes))
 	return w
 }
 
@@ -335,6 +369,8 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 		w.acc[i].reset()
 	}
 	w.resetTx()
+	clear(w.nodePk)
+	clear(w.nodePkCase)
 	var nw nodeWorst
 	pep := e.Cond.PowerW
 	emf := c.EMFForPower(pep)
@@ -420,11 +456,19 @@ func (e *Engine) evalNodes(w *workspace, ci, cls int, alpha complex128, scale, k
 // evalNode keeps node ni's peak voltage at one case if it is the worst.
 func (e *Engine) evalNode(w *workspace, ni, ci, cls int, alpha complex128, scale, k float64, nw *nodeWorst) {
 	s := w.carr
-	v := math.Sqrt2 * (mag(s.Node[0][ni]+alpha*s.Node[1][ni])*scale + k*w.nodeH[cls][ni])
+	v := math.Sqrt2*(mag(s.Node[0][ni]+alpha*s.Node[1][ni])*scale+k*w.nodeH[cls][ni]) + e.nodeDC(ni)
 	if v > nw.vpk {
 		nw.vpk, nw.node, nw.at = v, ni, ci
 	}
+	if v > w.nodePk[ni] {
+		w.nodePk[ni], w.nodePkCase[ni] = v, ci
+	}
 }
+
+// nodeDC is the DC voltage of node ni, added to its RF peak: the hook for
+// the DC layer (a supply through an RF choke puts its voltage on the tank
+// and on every clearance to ground). 0 until DC is modelled.
+func (e *Engine) nodeDC(ni int) float64 { return 0 }
 
 // evalPart computes part i's stresses at one case and keeps the worst.
 // It allocates nothing: this is the inner loop of every audit and trial.
@@ -450,6 +494,12 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	q[qIrms] = irms
 	q[qPdiss] = (s.R[i]*cur*cur + k*k*w.sumP[cls][i]) * avg
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss] = true, true, true, true
+	// the gap between the part's terminals (gap=, or a clearance
+	// statement) sees the part's peak voltage: RF peaks with harmonics
+	// added as peaks add, and any DC across the part once the DC layer
+	// adds it to q[qVpk] above
+	q[qArc] = q[qVpk]
+	has[qArc] = true
 	var heat ratings.Heat
 	if rp := e.rparts[i]; rp != nil {
 		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
@@ -487,7 +537,7 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 	a.kindSeen[kind] = true
 	lim := &w.lim[i]
 	for qi := 0; qi < nQ; qi++ {
-		if !has[qi] {
+		if !has[qi] || lim.hide[qi] {
 			continue
 		}
 		a.has[qi] = true
@@ -568,7 +618,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		a, th := exactWorst(w.carr, e.C.Zout, s.Node[0][ni], s.Node[1][ni], ca, ra)
 		ci := e.circleIndex(w, first, th, disc)
 		e.evalNode(w, ni, ci, hNormal, a, scale, k, nw)
-		if ci >= e.NumCases() && nw.at == ci {
+		if ci >= e.NumCases() && (nw.at == ci || w.nodePkCase[ni] == ci) {
 			e.record(w, first, f, th)
 		}
 	}
@@ -754,7 +804,11 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 		pl := &out[i]
 		pl.areaRatio = ratios[i*len(e.levels) : (i+1)*len(e.levels)]
 		if rp == nil {
+			pl.hide[qArc] = true
 			continue
+		}
+		for qi, q := range Quantities {
+			pl.hide[qi] = !rp.Shows(q)
 		}
 		// numbers only: the text of a limit is formatted when a verdict
 		// needs it (judge), not for every part at every carrier

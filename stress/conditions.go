@@ -136,6 +136,9 @@ type Conditions struct {
 	// steady state), +Inf steady state asked for.
 	KeyDown float64
 	Duty    ratings.Duty // from the mode preset
+	// Altitude is the station's height above sea level, m: the air
+	// pressure for clearances (ISO 2533).
+	Altitude float64
 }
 
 // HeatTime is the key-down time the temperature is judged at (s; +Inf
@@ -453,6 +456,18 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 			return settingError(s, "standard, strict, none or a profile file", "no profile named")
 		}
 		c.Derate, c.DerateAt = v, s.Pos
+	case "altitude":
+		if _, err := strconv.ParseFloat(v, 64); err == nil {
+			return settingError(s, "an altitude with a unit, e.g. 1500m or 1.5km", "altitude %s has no unit", v)
+		}
+		x, err := num("m")
+		if err != nil {
+			return err
+		}
+		if x < -500 || x > 11000 {
+			return settingError(s, "−500 m to 11 km, the standard atmosphere's troposphere", "altitude out of range")
+		}
+		c.Altitude = x
 	case "ambient":
 		x, err := num("C")
 		if err != nil {

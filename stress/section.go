@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 
 	"rfstress/circuits"
 	"rfstress/ratings"
@@ -21,7 +22,11 @@ func (e *Engine) Audit() (*Section, error) {
 	acc := w.acc
 	nl := e.C.NL
 	s := &Section{File: nl.File, Title: nl.Title, SHA256: nl.SHA256(), Netlist: nl, Conditions: e.Cond,
-		Engine: e, NumCases: e.NumCases(), Extra: w.extra, MaxNodeVpk: nw.vpk, MaxNodeCase: nw.at, SafeW: math.Inf(1)}
+		Engine: e, NumCases: e.NumCases(), Extra: w.extra, MaxNodeVpk: nw.vpk, MaxNodeCase: nw.at, SafeW: math.Inf(1),
+		Air: e.Air(), AirPressure: e.Air().Pressure()}
+	for ni, n := range e.C.Nodes {
+		s.Nodes = append(s.Nodes, NodePeak{Node: n, Vpk: w.nodePk[ni], Case: w.nodePkCase[ni]})
+	}
 	if len(e.C.Nodes) > 0 {
 		s.MaxNodeAt = e.C.Nodes[nw.node]
 	}
@@ -37,6 +42,7 @@ func (e *Engine) Audit() (*Section, error) {
 	if s.Tx.Verdict > s.Verdict {
 		s.Verdict = s.Tx.Verdict
 	}
+	e.clearanceFindings(s)
 	for _, p := range s.Parts {
 		if p.Verdict > s.Verdict && !(p.Verdict == ratings.Unrated && e.AllowUnrated) {
 			s.Verdict = p.Verdict
@@ -106,7 +112,7 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 				factor = 1
 			}
 			st.Buy, st.BuyText = ratings.BuyRating(q, st.Value, factor)
-			if q == ratings.Bpk || q == ratings.Bavg || q == ratings.Temp || q == ratings.Jrms {
+			if q == ratings.Bpk || q == ratings.Bavg || q == ratings.Temp || q == ratings.Jrms || q == ratings.Arc {
 				// physical figures: core size, cooling surface, wire diameter
 				// at the case of the largest use: the limit may vary with f
 				c, at := s.Case(st.Case), st.Value
@@ -128,6 +134,11 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 					Text: fmt.Sprintf("flux at average power %s is above the heating guide %s: advice, not a rating. The Q measured at small signal understates the core loss at this flux; run at low power for a while and check that the winding is only warm",
 						circuits.FormatSI(st.Value, "T"), circuits.FormatSI(lim.Derated, "T"))})
 			}
+		}
+		if q == ratings.Arc && rp.Gap != nil {
+			p.Clearance = &ClearanceResult{Gap: rp.Gap.Gap, Medium: rp.Gap.Medium,
+				ArcV: ratings.ArcVoltage(rp.Gap.Gap, rp.Atmosphere()), Limit: st.Limit.Abs, Derated: st.Limit.Derated,
+				Vpk: st.Value, Needed: rp.GapNeeded(st.Value)}
 		}
 		if st.Verdict > p.Verdict {
 			p.Verdict = st.Verdict
@@ -366,7 +377,77 @@ type Section struct {
 	// Tx is what the transmitter sees: its worst SWR, input impedance and
 	// reflected power over every case, judged against tx-swr-max.
 	Tx TxResult
+	// Air is the atmosphere clearances were judged in, AirPressure its
+	// pressure in Pa; Nodes each node's worst peak to ground.
+	Air         ratings.Atmosphere
+	AirPressure float64
+	Nodes       []NodePeak
+	// ArcCheckV is the peak voltage at which a typical small air
+	// clearance (ArcCheckGap) would arc here: node pairs above it with no
+	// clearance declared get a finding.
+	ArcCheckV float64
 }
+
+// NodePeak is a node's worst peak voltage to ground and its case.
+type NodePeak struct {
+	Node string
+	Vpk  float64
+	Case int
+}
+
+// ArcCheckGap is the clearance assumed where none is declared: about the
+// spacing of leads, pads and wiring in small-signal construction (common
+// practice).
+const ArcCheckGap = 1e-3
+
+// clearanceFindings adds a finding for every audited node pair (each node
+// to ground, each part's terminals) whose worst peak voltage would arc
+// across a typical 1 mm air clearance when no clearance is declared
+// between those two nodes (gap= on a part, or a clearance statement).
+func (e *Engine) clearanceFindings(s *Section) {
+	air := e.Air()
+	thr := ratings.ArcVoltage(ArcCheckGap, air)
+	s.ArcCheckV = thr
+	type pair struct{ a, b string }
+	key := func(a, b string) pair {
+		if a > b {
+			a, b = b, a
+		}
+		return pair{a, b}
+	}
+	declared := map[pair]bool{}
+	for i, el := range e.C.Elements {
+		if rp := e.rparts[i]; rp != nil && rp.Gap != nil {
+			declared[key(el.Comp.A, el.Comp.B)] = true
+		}
+	}
+	where := fmt.Sprintf("a %s air gap would arc at %s here (%.0f m, %.1f kPa)", mmLabel(ArcCheckGap), circuits.FormatSI(thr, "V"), air.Altitude, air.Pressure()/1e3)
+	for _, n := range s.Nodes {
+		if n.Vpk > thr && !declared[key(n.Node, circuits.Ground)] {
+			declared[key(n.Node, circuits.Ground)] = true // said once, here
+			s.Findings = append(s.Findings, ratings.Finding{Pos: circuits.Pos{File: s.File, Line: 1, Col: 1}, Severity: "warning",
+				Text: fmt.Sprintf("node %s reaches %s peak to ground at %s; %s: check its spacing to the chassis and declare it (clearance NAME %s %s gap=… medium=air|board|coated)",
+					n.Node, circuits.FormatSI(n.Vpk, "V"), s.Case(n.Case).Describe(), where, n.Node, circuits.Ground)})
+		}
+	}
+	for i, p := range s.Parts {
+		rp := e.rparts[i]
+		st, ok := p.Stress[ratings.Vpk]
+		if rp == nil || !ok || st.Value <= thr {
+			continue
+		}
+		a, b, across := rp.AcrossNodes(e.C.Elements[i].Comp)
+		if !across || declared[key(a, b)] {
+			continue
+		}
+		declared[key(a, b)] = true
+		p.Findings = append(append([]ratings.Finding(nil), p.Findings...), ratings.Finding{Part: p.Name, Pos: rp.Pos, Severity: "warning",
+			Text: fmt.Sprintf("%s peak across its terminals (%s to %s) at %s; %s: declare its lead or plate spacing with gap= (and medium=)",
+				circuits.FormatSI(st.Value, "V"), a, b, s.Case(st.Case).Describe(), where)})
+	}
+}
+
+func mmLabel(d float64) string { return strconv.FormatFloat(d*1e3, 'g', 3, 64) + " mm" }
 
 // Case returns case i of the section.
 func (s *Section) Case(i int) Case {

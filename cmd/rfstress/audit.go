@@ -39,6 +39,7 @@ var conditionFlags = []struct{ name, def, help string }{
 	{"derate", "", "derating `profile`: standard, strict, none, or a profile file (default standard)"},
 	{"ambient", "", "ambient temperature in `°C` (default 25)"},
 	{"tx-swr-max", "", "highest `SWR` the transmitter may see at its port (transmitter protection; default: shown, not judged)"},
+	{"altitude", "", "station `altitude` above sea level with a unit, e.g. 1500m: air pressure for clearances (default sea level)"},
 }
 
 func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
