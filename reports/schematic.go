@@ -178,6 +178,9 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 		if c.A == circuits.Ground && c.B == circuits.Ground {
 			continue // shorted to itself: nothing to draw
 		}
+		if k := circuits.SpecOf(c.Kind); k != nil && k.Observes {
+			continue // a clearance joins nothing: it is in the part table, not the circuit
+		}
 		sp := &schPart{name: c.Name, kind: c.Kind, a: c.A, b: c.B, col: colMuted, coupled: len(coupledTo[c.Name]) > 0}
 		_, sp.core = c.Attrs["core"]
 		sp.line1 = c.Name
