@@ -20,6 +20,8 @@ func FuzzAudit(f *testing.F) {
 		}
 	}
 	f.Add(testLowpass("audit freq=7.1M swr=3 faults=open,short"))
+	f.Add(lpf20("audit band=14M:14.35M mode=data-15s key-down=90s swr=2\n"))
+	f.Add(chokeNet + "audit freq=7M mode=tune power=1M harmonics=none\n")
 	f.Add("port in a z=50\nport out b z=1e-9+j1e9\ncapacitor C a b 1f q=1e12\naudit band=1k:1G points=3 swr=999 phases=5 drive=delivered\n")
 	f.Add("port in a z=50\nport out b z=50\ninductor L a b 1u q=1e12\ncapacitor C b gnd 1n q=1e12\naudit freq=5.03292M faults=open swr=1000\n")
 	f.Fuzz(func(t *testing.T, src string) {
