@@ -470,7 +470,7 @@ func writeTolText(w io.Writer, s *stress.Section) {
 	tb := newTable("part", "quantity", "median", "99th pct", "max", "> derated", "> rating")
 	for _, p := range t.Parts {
 		for _, q := range p.Q {
-			if !q.Rated {
+			if !q.Rated || q.Advice {
 				continue // the text keeps to rated stresses; JSON and CSV have all
 			}
 			over, overR := "", ""

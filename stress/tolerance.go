@@ -52,6 +52,7 @@ type TolQuantity struct {
 	OverDerated float64 // share of trials above the derated limit
 	OverRating  float64 // share of trials above the rating
 	Rated       bool
+	Advice      bool // the heating guide: its shares are advice, not a rating's
 }
 
 // Tolerance runs opt.Trials audits of the circuit with part values and Q
@@ -186,7 +187,7 @@ func (e *Engine) Tolerance(opt TolOptions) (*Tolerance, error) {
 				continue
 			}
 			sk := all.vals[k]
-			tq := TolQuantity{Quantity: Quantities[q], Rated: ratio[k] > 0,
+			tq := TolQuantity{Quantity: Quantities[q], Rated: ratio[k] > 0, Advice: len(e.lims) > 0 && e.lims[0][i].advice[q],
 				Median: sk.Quantile(0.5), P99: sk.Quantile(0.99), Max: sk.Max(),
 				OverDerated: float64(all.overD[k]) / float64(opt.Trials),
 				OverRating:  float64(all.overR[k]) / float64(opt.Trials)}
