@@ -202,18 +202,18 @@ func TestKeyDownAndDutyPresets(t *testing.T) {
 		p := sec.Parts[1]
 		return p.Stress[ratings.Temp].Value, p.Heat
 	}
-	t30, h30 := temp("mode=carrier", "key-down=30s")
-	t5m, _ := temp("mode=carrier", "key-down=5m")
+	after30s, heat30s := temp("mode=carrier", "key-down=30s")
+	after5min, _ := temp("mode=carrier", "key-down=5m")
 	tss, hss := temp("mode=carrier")
-	if !(t30 < t5m && t5m < tss) || !math.IsInf(hss.KeyDown, 1) || h30.KeyDown != 30 {
-		t.Errorf("30 s %.2f °C, 5 min %.2f °C, steady %.2f °C", t30, t5m, tss)
+	if !(after30s < after5min && after5min < tss) || !math.IsInf(hss.KeyDown, 1) || heat30s.KeyDown != 30 {
+		t.Errorf("30 s %.2f °C, 5 min %.2f °C, steady %.2f °C", after30s, after5min, tss)
 	}
 	// first order: the rise after 30 s is (1 − e^(−30/τ)) of the steady one
-	if want := 25 + (h30.Steady-25)*(1-math.Exp(-30/h30.Tau)); math.Abs(t30-want) > 1e-9 {
-		t.Errorf("30 s: %.6f °C, first order %.6f °C", t30, want)
+	if want := 25 + (heat30s.Steady-25)*(1-math.Exp(-30/heat30s.Tau)); math.Abs(after30s-want) > 1e-9 {
+		t.Errorf("30 s: %.6f °C, first order %.6f °C", after30s, want)
 	}
-	if tune, _ := temp("mode=tune"); math.Abs(tune-t30) > 1e-9 {
-		t.Errorf("tune preset %.4f °C, carrier after 30 s %.4f °C", tune, t30)
+	if tune, _ := temp("mode=tune"); math.Abs(tune-after30s) > 1e-9 {
+		t.Errorf("tune preset %.4f °C, carrier after 30 s %.4f °C", tune, after30s)
 	}
 	data, _ := temp("mode=data-15s")
 	half, _ := temp("avg-ratio=0.5")
