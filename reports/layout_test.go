@@ -4,7 +4,9 @@ import (
 	"bytes"
 	"encoding/xml"
 	"math"
+	"os"
 	"os/exec"
+	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
@@ -177,6 +179,12 @@ audit power=100 freq=14.1M
 // drawing overlap.
 func TestSchematicLabels(t *testing.T) {
 	srcs := append(demoSources(t), extraNets...)
+	// lines, a balanced feeder and a balun from the parser's examples
+	for _, name := range []string{"coax_tuner.net", "balanced_feed.net"} {
+		if b, err := os.ReadFile(filepath.Join("..", "circuits", "testdata", name)); err == nil {
+			srcs = append(srcs, netSrc{name, append(b, []byte("\naudit freq=7.1M\n")...)})
+		}
+	}
 	doc := demoDoc(t, srcs, 0)
 	pdf := schematicPDF(t, doc)
 	words := bboxWords(t, pdf)

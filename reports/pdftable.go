@@ -321,7 +321,7 @@ func widths(titles []string, rel []float64, align string) []tcol {
 func (p *pdfw) partTable(s *stress.Section) {
 	shownQ := []ratings.Quantity{ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings.Temp}
 	gaps := hasGaps(s)
-	titles := []string{"part", "value", "gap", "peak V", "RMS I", "dissipation", "flux", "temp.", "use", "verdict"}
+	titles := []string{"part", "value", "gap", "peak V", "RMS I (avg)", "dissipation (avg)", "flux", "temp. (avg)", "use", "verdict"}
 	rel, align := []float64{12, 14, 14, 14, 13, 15, 13, 11, 11, 17}, "LLLRRRRRRL"
 	if !gaps {
 		titles = append(titles[:2:2], titles[3:]...)

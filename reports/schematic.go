@@ -41,13 +41,14 @@ type slabel struct {
 // ssymbol is one part placed between its two terminals a and b (a is
 // left of or above b).
 type ssymbol struct {
-	name    string
-	kind    circuits.Kind
-	a, b    spt
-	col     rgb
-	core    bool
-	dot     int // coupled coil: 1 dot at the a end, 2 at the b end
-	verdict ratings.Verdict
+	name     string
+	kind     circuits.Kind
+	a, b     spt
+	col      rgb
+	core     bool
+	variable bool // range= or steps=: an adjustable part
+	dot      int  // coupled coil: 1 dot at the a end, 2 at the b end
+	verdict  ratings.Verdict
 }
 
 // slink is a coupling between two coils: a dashed path and its label.
@@ -86,19 +87,20 @@ const (
 )
 
 type schPart struct {
-	name    string
-	kind    circuits.Kind
-	a, b    string
-	core    bool
-	coupled bool
-	line1   string // name and value
-	line2   string // binding stress
-	line3   string // share of its derated limit, or why none
-	col     rgb
-	verdict ratings.Verdict
-	below   *schPart // a branch to ground: the part under this one
-	from    string   // and the node the branch hangs from
-	inChain bool     // drawn as the lower part of a branch
+	name     string
+	kind     circuits.Kind
+	a, b     string
+	core     bool
+	variable bool
+	coupled  bool
+	line1    string // name and value
+	line2    string // binding stress
+	line3    string // share of its derated limit, or why none
+	col      rgb
+	verdict  ratings.Verdict
+	below    *schPart // a branch to ground: the part under this one
+	from     string   // and the node the branch hangs from
+	inChain  bool     // drawn as the lower part of a branch
 }
 
 // partLabel gives the label lines of a part from its audit result:
@@ -181,8 +183,16 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 		if k := circuits.SpecOf(c.Kind); k != nil && k.Observes {
 			continue // a clearance joins nothing: it is in the part table, not the circuit
 		}
-		sp := &schPart{name: c.Name, kind: c.Kind, a: c.A, b: c.B, col: colMuted, coupled: len(coupledTo[c.Name]) > 0}
+		a, b := c.A, c.B
+		if t := c.Terminals(); len(t) >= 4 {
+			// a balanced two-port: drawn from its first end to its second
+			a, b = t[0], t[len(t)/2]
+		}
+		sp := &schPart{name: c.Name, kind: c.Kind, a: a, b: b, col: colMuted, coupled: len(coupledTo[c.Name]) > 0}
 		_, sp.core = c.Attrs["core"]
+		_, rng := c.Attrs["range"]
+		_, stp := c.Attrs["steps"]
+		sp.variable = rng || stp
 		sp.line1 = c.Name
 		if pr := results[c.Name]; pr != nil {
 			sp.line1, sp.line2, sp.line3 = partLabel(pr)
@@ -477,7 +487,7 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 	y0 := 0.0
 	yG := schShuntLen
 	place := func(p *schPart, a, b spt, aIsA bool) {
-		sym := ssymbol{name: p.name, kind: p.kind, a: a, b: b, col: p.col, core: p.core, verdict: p.verdict}
+		sym := ssymbol{name: p.name, kind: p.kind, a: a, b: b, col: p.col, core: p.core, variable: p.variable, verdict: p.verdict}
 		if p.coupled {
 			sym.dot = 1
 			if !aIsA {
@@ -493,6 +503,7 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 	}
 	conn := make([]int, nCol) // connections at each bus, for junction dots
 	symCentre := map[string]spt{}
+	spanOf := map[string][2]float64{} // series parts: the x extent of their gap
 	for _, sp := range spans {
 		yl := y0 - float64(sp.lane)*schLane
 		sp.yl = yl
@@ -505,6 +516,7 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 		sc.wires = append(sc.wires, [2]spt{{sp.x1, yl}, a}, [2]spt{b, {sp.x2, yl}})
 		place(sp.p, a, b, sp.aLeft)
 		symCentre[sp.p.name] = spt{mid, yl}
+		spanOf[sp.p.name] = [2]float64{sp.x1, sp.x2}
 		conn[sp.c1]++
 		conn[sp.c2]++
 		sc.labels = append(sc.labels, partLabels(sp.p, mid, yl-4.2-2*schLineH, 'C')...)
@@ -611,9 +623,28 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 			path = []spt{{c1.x, yl + 1.2}, {c1.x, yl}, {c2.x, yl}, {c2.x, yl + 1.2}}
 			ya = yl - 3.6
 		} else {
+			// a series coil and a shunt coil: leave the series coil sideways,
+			// drop at the edge of its gap (clear of the shunt labels beside
+			// it), then run under to the shunt coil
 			yl := math.Max(ya, yb)
-			path = []spt{{c1.x, c1.y + 4.5}, {c1.x, yl}, {c2.x, yl}, {c2.x, c2.y + 4.5}}
+			ser, sh := c1, c2
+			name := k.L1
+			if c1.y > y0 {
+				ser, sh, name = c2, c1, k.L2
+			}
+			if _, ok := spanOf[name]; !ok {
+				name = k.L2
+			}
+			xd := ser.x
+			if sp, ok := spanOf[name]; ok {
+				xd = sp[1] - 1.5
+				if sh.x < ser.x {
+					xd = sp[0] + 1.5
+				}
+			}
+			path = []spt{{ser.x, ser.y + 2.5}, {xd, ser.y + 2.5}, {xd, yl}, {sh.x, yl}, {sh.x, sh.y + 4.5}}
 			ya = yl
+			c1, c2 = spt{math.Min(xd, sh.x), 0}, spt{math.Max(xd, sh.x), 0}
 		}
 		sc.links = append(sc.links, slink{path: path})
 		sc.labels = append(sc.labels, slabel{x: (c1.x + c2.x) / 2, y: ya + 2.6, s: k.Name + " k " + num(k.K, 3),

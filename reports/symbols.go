@@ -64,6 +64,7 @@ var symbolDrawers = map[circuits.Kind]symbolDrawer{
 	circuits.Inductor:  drawInductor,
 	circuits.Resistor:  drawResistor,
 	circuits.Block:     drawBlock,
+	circuits.Line:      drawLine,
 }
 
 const symW = 0.35 // symbol stroke, mm
@@ -77,6 +78,17 @@ func drawSymbol(cv canvas, s ssymbol) {
 		d = drawBox
 	}
 	d(cv, f, s)
+	if s.variable {
+		// adjustable: an arrow slanting through the body (IEC 60617-2)
+		u0, u1 := f.body(schSymLen)
+		a, b := f.at(u0+0.5, -3), f.at(u1-0.5, 3.2)
+		cv.line(a, b)
+		dx, dy := b.x-a.x, b.y-a.y
+		l := math.Hypot(dx, dy)
+		ux, uy := dx/l, dy/l
+		h := 1.2
+		cv.poly([]spt{b, {b.x - h*ux + h*0.45*uy, b.y - h*uy - h*0.45*ux}, {b.x - h*ux - h*0.45*uy, b.y - h*uy + h*0.45*ux}}, true, true)
+	}
 	if s.dot != 0 {
 		u0, u1 := f.body(schSymLen)
 		u := u0 + 0.6
@@ -134,6 +146,24 @@ func drawBlock(cv canvas, f frame, _ ssymbol) {
 	cv.text(slabel{x: c.x, y: c.y + 1, s: "S", size: 7, bold: true, col: currentStroke(cv), anchor: 'C'})
 	g := f.at((u0+u1)/2, -h/2)
 	drawGround(cv, g)
+}
+
+// drawLine: a transmission line as a screened conductor, the screen drawn
+// as a tube with its two ends (common practice for coaxial line).
+func drawLine(cv canvas, f frame, _ ssymbol) {
+	const n, h = 9.0, 1.6
+	u0, u1 := f.body(n)
+	cv.line(f.at(0, 0), f.at(f.length, 0))
+	cv.line(f.at(u0, h), f.at(u1, h))
+	cv.line(f.at(u0, -h), f.at(u1, -h))
+	for _, u := range []float64{u0, u1} {
+		var pts []spt
+		for k := 0; k <= 16; k++ {
+			a := 2 * math.Pi * float64(k) / 16
+			pts = append(pts, f.at(u+0.6*math.Cos(a), h*math.Sin(a)))
+		}
+		cv.poly(pts, false, false)
+	}
 }
 
 // drawBox is the general element: a rectangle with a cross-line, for kinds
