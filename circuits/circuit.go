@@ -383,7 +383,7 @@ func (fz *Factorization) Refactor(f float64) error {
 		err = fz.lu.Factor(fz.mat)
 	}
 	if err != nil {
-		return fmt.Errorf("at %s: %w", FormatSI(f, "Hz"), err)
+		return fmt.Errorf("at %s: %w", FormatSI(f, "Hz"), fz.explainSingular(f, err))
 	}
 	return nil
 }

@@ -102,6 +102,9 @@ type System struct {
 	band    *BandLU  // band storage, when set, instead of M
 	rec     *pattern // when set, Add records positions and stores nothing
 	outside bool     // an Add fell outside the band
+	// visit, when set, receives every entry instead of storing it (the
+	// residual and the diagnosis of a singular matrix, balance.go)
+	visit func(r, c int, v complex128)
 }
 
 // Add adds v at row r, column c.
@@ -110,6 +113,8 @@ func (s *System) Add(r, c int, v complex128) {
 		return
 	}
 	switch {
+	case s.visit != nil:
+		s.visit(r, c, v)
 	case s.band != nil:
 		if !s.band.Add(s.perm[r], s.perm[c], v) {
 			s.outside = true

@@ -186,7 +186,8 @@ type Netlist struct {
 	Couplings  []*Coupling
 	Materials  []*Material
 	Audit      []*Directive
-	Nodes      []string // non-ground nodes in order of first use
+	Nodes      []string       // non-ground nodes in order of first use
+	NodePos    map[string]Pos // where each node is first named
 }
 
 // SHA256 is the hex digest of the file as read.
@@ -327,6 +328,7 @@ func Parse(file string, src []byte) (*Netlist, error) {
 	for i, raw := range lines {
 		p.line(i+1, raw)
 	}
+	p.nl.NodePos = p.nodePos
 	p.check()
 	if len(p.errs) > 0 {
 		p.errs.Sort()

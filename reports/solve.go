@@ -31,13 +31,16 @@ type SolveView struct {
 	PinW        float64     `json:"p_in_w"`
 	PoutW       float64     `json:"p_out_w"`
 	PlossW      float64     `json:"p_loss_w"`
-	ZinRe       float64     `json:"zin_re_ohm"`
-	ZinIm       float64     `json:"zin_im_ohm"`
+	ZinRe       *float64    `json:"zin_re_ohm"` // null when the solve cannot be trusted
+	ZinIm       *float64    `json:"zin_im_ohm"`
 	S11dB       float64     `json:"s11_db"`
 	S11deg      float64     `json:"s11_deg"`
 	S21dB       float64     `json:"s21_db"`
 	S21deg      float64     `json:"s21_deg"`
 	Components  []SolvePart `json:"components"`
+	// Findings are sentences about the solve itself (a power balance that
+	// does not close).
+	Findings []string `json:"findings,omitempty"`
 }
 
 // WriteSolveJSON writes the view as indented JSON with stable key order.
@@ -69,8 +72,15 @@ func WriteSolveText(w io.Writer, v *SolveView) error {
 	fmt.Fprintf(w, "\n  into the network  %s\n", si(v.PinW, "W"))
 	fmt.Fprintf(w, "  into the load     %s\n", si(v.PoutW, "W"))
 	fmt.Fprintf(w, "  lost in parts     %s\n", si(v.PlossW, "W"))
-	fmt.Fprintf(w, "  input impedance   %s\n", circuits.FormatComplex(complex(v.ZinRe, v.ZinIm)))
+	if v.ZinRe != nil && v.ZinIm != nil {
+		fmt.Fprintf(w, "  input impedance   %s\n", circuits.FormatComplex(complex(*v.ZinRe, *v.ZinIm)))
+	} else {
+		fmt.Fprintf(w, "  input impedance   — (not shown: see the finding below)\n")
+	}
 	fmt.Fprintf(w, "  S11 %s dB ∠%s°   S21 %s dB ∠%s°\n", num(v.S11dB, 2), num(v.S11deg, 1), num(v.S21dB, 3), num(v.S21deg, 1))
+	for _, f := range v.Findings {
+		fmt.Fprintf(w, "  FINDING: %s\n", f)
+	}
 	return nil
 }
 

@@ -289,6 +289,8 @@ func (a *accum) reset() {
 
 // workspace holds per-run storage so the case loop allocates nothing.
 type workspace struct {
+	bal balanceNote // the worst power balance met (nominal audit only)
+
 	c     *circuits.Circuit
 	sw    *circuits.SplitWork
 	carr  *circuits.Split
@@ -381,14 +383,14 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 		if e.Progress != nil {
 			e.Progress.Add(1)
 		}
-		if err := w.sw.Fill(w.carr, f); err != nil {
+		if err := e.fill(w, w.carr, f); err != nil {
 			return nw, err
 		}
 		for h := range e.levels {
 			if e.levels[h] == 0 {
 				continue
 			}
-			if err := w.sw.Fill(w.harm[h], float64(h+2)*f); err != nil {
+			if err := e.fill(w, w.harm[h], float64(h+2)*f); err != nil {
 				return nw, err
 			}
 		}

@@ -34,6 +34,9 @@ func (e *Engine) Audit() (*Section, error) {
 		s.Findings = e.R.Findings
 		s.Profile = e.R.Profile
 	}
+	if w.bal.err > 0 {
+		s.Findings = append(append([]ratings.Finding(nil), s.Findings...), w.bal.finding())
+	}
 	for i, el := range e.C.Elements {
 		s.Parts = append(s.Parts, e.judge(s, el, e.rparts[i], &acc[i]))
 	}

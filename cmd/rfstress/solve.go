@@ -79,7 +79,7 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 			return exitUsage, err
 		}
 	}
-	r, err := c.Solve(f, *power, ld)
+	r, check, err := c.SolveChecked(f, *power, ld)
 	if err != nil {
 		return exitUsage, usagef("%s: %v", file, err)
 	}
@@ -88,8 +88,13 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 		return exitUsage, usagef("%s: %v", file, err)
 	}
 	v := &reports.SolveView{File: file, Title: nl.Title, FrequencyHz: f, PowerW: *power, Load: ldText,
-		PinW: r.Pin, PoutW: r.Pout, PlossW: r.Ploss, ZinRe: real(r.Zin), ZinIm: imag(r.Zin),
+		PinW: r.Pin, PoutW: r.Pout, PlossW: r.Ploss, ZinRe: finite(real(r.Zin)), ZinIm: finite(imag(r.Zin)),
 		S11dB: circuits.DB(sp.S11), S11deg: circuits.PhaseDeg(sp.S11), S21dB: circuits.DB(sp.S21), S21deg: circuits.PhaseDeg(sp.S21)}
+	if !check.OK() {
+		// a wrong input impedance looks like any other: show none
+		v.ZinRe, v.ZinIm = nil, nil
+		v.Findings = append(v.Findings, check.Finding(f))
+	}
 	for i, e := range c.Elements {
 		ps := r.Parts[i]
 		v.Components = append(v.Components, reports.SolvePart{Name: e.Name, Kind: string(e.Kind),
@@ -187,4 +192,12 @@ func runResponse(args []string, stdout, stderr io.Writer) (int, error) {
 		return exitOK, nil
 	}
 	return exitOK, reports.WriteSweepText(stdout, v)
+}
+
+// finite is v for JSON, or nil (null) when it is not a finite number.
+func finite(v float64) *float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return nil
+	}
+	return &v
 }
