@@ -13,7 +13,8 @@ func init() {
 	Register(&KindSpec{
 		Kind: Capacitor, Unit: "F", Example: "300p", Model: capacitorModel{},
 		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: withMeasured(capacitorAttrs)},
-		Prepare: prepareLoss,
+		Prepare: prepareCapacitor,
+		Check:   checkSelfResonance("esl"),
 	})
 }
 
@@ -40,6 +41,17 @@ func DefaultCapacitorQ(dielectric string) float64 {
 		return q
 	}
 	return genericCapQ
+}
+
+func prepareCapacitor(e *Element) {
+	prepareLoss(e)
+	a := e.Comp.Attrs
+	if v, ok := a.Num("esl"); ok {
+		e.esl = v
+	} else if srf, ok := a.Num("srf"); ok && e.Value > 0 {
+		w := 2 * math.Pi * srf
+		e.esl = 1 / (w * w * e.Value)
+	}
 }
 
 type capacitorModel struct{}
@@ -79,7 +91,9 @@ func (m capacitorModel) Impedance(e *Element, f float64) complex128 {
 	if z, ok := e.measuredZ(f); ok {
 		return z
 	}
-	return complex(m.LossR(e, f), -1/(2*math.Pi*f*e.Value))
+	// ESR + ESL + C in series
+	w := 2 * math.Pi * f
+	return complex(m.LossR(e, f), w*e.esl-1/(w*e.Value))
 }
 
 // capacitorAttrs: loss and rating attributes; ratings are read by the
@@ -95,6 +109,8 @@ var capacitorAttrs = map[string]AttrSpec{
 	"dielectric": {Type: TWord, Choices: Dielectrics, Help: "a dielectric class: c0g, np0, mica, porcelain, film, glass, air, vacuum, x7r, x5r, y5v, z5u"},
 	"tol":        {Type: TPercent, Help: "value tolerance such as 5%"},
 	"qtol":       {Type: TPercent, Help: "Q tolerance such as 20%"},
+	"esl":        {Type: TPositive, Units: []string{"H"}, Help: "series inductance of leads and body, e.g. 5n"},
+	"srf":        {Type: TPositive, Units: []string{"Hz"}, Help: "series self-resonant frequency (gives the series inductance), e.g. 120M"},
 	"range":      {Type: TText, Help: "settings of a variable capacitor lo:hi, such as 20p:400p"},
 	"steps":      {Type: TText, Help: "a number of evenly spaced settings, or the settings: 8 or 10p,22p,47p"},
 	"gap":        gapAttr,

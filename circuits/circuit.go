@@ -23,6 +23,8 @@ type Element struct {
 	df     float64
 	meas   *measuredData // measured impedance (parts) or S-parameters (blocks)
 	line   *LineSpec     // lines only; shared by scaled copies, never changed
+	cp     float64       // inductor self-capacitance, F (cp= or srf=)
+	esl    float64       // capacitor series inductance, H (esl= or srf=)
 }
 
 type mutual struct {
@@ -466,6 +468,10 @@ type PartState struct {
 	// V2, I2 are the second port's voltage and the current into it, for
 	// two-port kinds (lines, measured blocks); zero for two-terminal parts.
 	V2, I2 complex128
+	// It is the terminal current where it differs from I: an inductor
+	// with self-capacitance carries I in its winding (flux, heat) and It
+	// at its terminals. Zero when they are the same.
+	It     complex128
 	Ploss  float64 // |I|²·R_loss
 }
 

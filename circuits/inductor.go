@@ -15,8 +15,52 @@ func init() {
 	Register(&KindSpec{
 		Kind: Inductor, Unit: "H", Example: "0.91u", Model: inductorModel{},
 		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: withMeasured(inductorAttrs)},
-		Prepare: prepareLoss,
+		Prepare: prepareInductor,
+		Check:   checkSelfResonance("cp"),
 	})
+}
+
+func prepareInductor(e *Element) {
+	prepareLoss(e)
+	a := e.Comp.Attrs
+	if v, ok := a.Num("cp"); ok {
+		e.cp = v
+	} else if srf, ok := a.Num("srf"); ok && e.Value > 0 {
+		w := 2 * math.Pi * srf
+		e.cp = 1 / (w * w * e.Value)
+	}
+}
+
+// SelfResonance is a part's self-resonant frequency from its parasitic
+// (an inductor's cp, a capacitor's esl); 0 when none is given.
+func (e *Element) SelfResonance() float64 {
+	var lc float64
+	switch {
+	case e.cp > 0:
+		lc = e.Value * e.cp
+	case e.esl > 0:
+		lc = e.Value * e.esl
+	default:
+		return 0
+	}
+	return 1 / (2 * math.Pi * math.Sqrt(lc))
+}
+
+// SelfCapacitance is an inductor's cp (0 when none).
+func (e *Element) SelfCapacitance() float64 { return e.cp }
+
+// SeriesInductance is a capacitor's esl (0 when none).
+func (e *Element) SeriesInductance() float64 { return e.esl }
+
+// checkSelfResonance refuses both a parasitic and srf= on one part.
+func checkSelfResonance(key string) func(c *Component, errf func(pos Pos, want, format string, args ...any)) {
+	return func(c *Component, errf func(pos Pos, want, format string, args ...any)) {
+		if a, ok := c.Attrs["srf"]; ok {
+			if _, both := c.Attrs[key]; both {
+				errf(a.Pos, "one of "+key+"= or srf=", "%s %s gives both %s= and srf=", c.Kind, c.Name, key)
+			}
+		}
+	}
 }
 
 type inductorModel struct{}
@@ -26,12 +70,31 @@ func (inductorModel) Branches(*Element) int { return 1 }
 func (m inductorModel) Stamp(e *Element, s *System, f float64) {
 	// at DC the branch equation V = 0·I makes the coil a short; its
 	// winding resistance is read by the DC layer when it exists
-	s.Branch(e.A, e.B, e.Branch, m.Impedance(e, f))
+	s.Branch(e.A, e.B, e.Branch, m.winding(e, f))
+	if e.cp > 0 && f > 0 {
+		// (L + R) ∥ Cp: the self-capacitance across the terminals
+		s.Admit(e.A, e.B, complex(0, 2*math.Pi*f*e.cp))
+	}
 }
 
+// State: I is the winding's current (flux, heat), It the terminal current
+// when self-capacitance makes them differ.
 func (inductorModel) State(e *Element, x []complex128, f float64) PartState {
 	cur := x[e.Branch]
-	return PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: cur, Lambda: complex(e.Inductance(f), 0) * cur}
+	v := nodeV(x, e.A) - nodeV(x, e.B)
+	st := PartState{V: v, I: cur, Lambda: complex(e.Inductance(f), 0) * cur}
+	if e.cp > 0 {
+		st.It = cur + complex(0, 2*math.Pi*f*e.cp)*v
+	}
+	return st
+}
+
+// winding is the inductive branch R + jωL (or the measured impedance).
+func (m inductorModel) winding(e *Element, f float64) complex128 {
+	if z, ok := e.measuredZ(f); ok && f > 0 {
+		return z
+	}
+	return complex(m.LossR(e, f), 2*math.Pi*f*e.Value)
 }
 
 func (m inductorModel) LossR(e *Element, f float64) float64 {
@@ -58,15 +121,19 @@ var inductorAttrs = map[string]AttrSpec{
 	"irms":   {Type: TPoints, Units: []string{"A"}, Help: "rated RMS current in A"},
 	"tol":    {Type: TPercent, Help: "value tolerance such as 5%"},
 	"qtol":   {Type: TPercent, Help: "Q tolerance such as 20%"},
+	"cp":     {Type: TPositive, Units: []string{"F"}, Help: "self-capacitance across the winding, e.g. 3p"},
+	"srf":    {Type: TPositive, Units: []string{"Hz"}, Help: "self-resonant frequency (gives the self-capacitance), e.g. 45M"},
 	"range":  {Type: TText, Help: "settings of a variable inductor lo:hi, such as 1u:25u"},
 	"steps":  {Type: TText, Help: "a number of evenly spaced settings (taps), or the settings: 12 or 2u,4u,8u"},
 	"gap":    gapAttr,
 	"medium": mediumAttr,
 }
 
+// Impedance at the terminals: (R + jωL) ∥ 1/(jωCp).
 func (m inductorModel) Impedance(e *Element, f float64) complex128 {
-	if z, ok := e.measuredZ(f); ok && f > 0 {
-		return z
+	z := m.winding(e, f)
+	if e.cp > 0 && f > 0 {
+		return 1 / (1/z + complex(0, 2*math.Pi*f*e.cp))
 	}
-	return complex(m.LossR(e, f), 2*math.Pi*f*e.Value)
+	return z
 }

@@ -55,8 +55,14 @@ func TestPowerBalance(t *testing.T) {
 				var sParts complex128
 				var pParts float64
 				for i, ps := range r.Parts {
-					// a two-port part (line) takes power at both ends
-					s := ps.V*cmplx.Conj(ps.I) + ps.V2*cmplx.Conj(ps.I2)
+					// a two-port part (line) takes power at both ends; a
+					// part's terminal current is It where it differs from
+					// its winding current I (self-capacitance)
+					cur := ps.I
+					if ps.It != 0 {
+						cur = ps.It
+					}
+					s := ps.V*cmplx.Conj(cur) + ps.V2*cmplx.Conj(ps.I2)
 					sParts += s
 					pParts += ps.Ploss
 					// Re(V·I*) of an uncoupled part is its dissipation; a

@@ -18,6 +18,7 @@ type Split struct {
 	Voc, Zth complex128 // Thevenin equivalent at the antenna port
 	V, I, L  [2][]complex128
 	V2, I2   [2][]complex128 // second-port states of two-port kinds
+	It       [2][]complex128 // terminal currents where they differ from I (zero otherwise)
 	R        []float64       // loss resistance per element at F
 	// Ports marks elements whose loss is the power into their two ports
 	// (lines), not R·|I|².
@@ -40,6 +41,7 @@ func NewSplit(c *Circuit) *Split {
 		s.L[k] = make([]complex128, n)
 		s.V2[k] = make([]complex128, n)
 		s.I2[k] = make([]complex128, n)
+		s.It[k] = make([]complex128, n)
 		s.Node[k] = make([]complex128, nn)
 	}
 	return s
@@ -91,7 +93,7 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 		c.partStates(x, f, w.parts, false)
 		for i, ps := range w.parts {
 			s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
-			s.V2[k][i], s.I2[k][i] = ps.V2, ps.I2
+			s.V2[k][i], s.I2[k][i], s.It[k][i] = ps.V2, ps.I2, ps.It
 		}
 		copy(s.Node[k], x[:len(c.Nodes)])
 		s.Vin[k] = x[c.In]
@@ -132,7 +134,8 @@ func (s *Split) Part(i int, alpha, e complex128) PartState {
 	lam := (s.L[0][i] + alpha*s.L[1][i]) * e
 	v2 := (s.V2[0][i] + alpha*s.V2[1][i]) * e
 	i2 := (s.I2[0][i] + alpha*s.I2[1][i]) * e
-	st := PartState{V: v, I: cur, Lambda: lam, V2: v2, I2: i2, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
+	it := (s.It[0][i] + alpha*s.It[1][i]) * e
+	st := PartState{V: v, I: cur, Lambda: lam, V2: v2, I2: i2, It: it, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
 	if s.Ports[i] {
 		st.Ploss = real(v*conj(cur)) + real(v2*conj(i2))
 	}
