@@ -141,6 +141,8 @@ type Engine struct {
 	forceScan    bool           // tests: scan the sampled phases instead of the exact worst
 	heatT        float64        // key-down time the temperature is judged at, s (+Inf steady)
 	block        []bool         // judged as a two-port by its ports (stress/block.go)
+	esl          []bool         // capacitors with series inductance: the dielectric sees I/(ωC)
+	selfC        []bool         // inductors with self-capacitance: winding and terminal currents differ
 	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
 	listed       []Case         // retuned audits: the cases of every load, listed (retune.go)
 	limBuf       []ratings.Limit
@@ -170,6 +172,8 @@ func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, 
 	e.perCarrier = 1 + len(e.circle) + len(cond.Loads) + len(e.faults)
 	for i := range c.Elements {
 		e.block = append(e.block, isBlock(c, i))
+		e.esl = append(e.esl, c.Elements[i].Kind == circuits.Capacitor && c.Elements[i].SeriesInductance() > 0)
+		e.selfC = append(e.selfC, c.Elements[i].Kind == circuits.Inductor && c.Elements[i].SelfCapacitance() > 0)
 	}
 	for _, el := range c.Elements {
 		var rp *ratings.Part
@@ -276,6 +280,9 @@ type accum struct {
 	// and the average dissipation that drives them
 	heat ratings.Heat
 	pavg float64
+	// an inductor with self-capacitance: the largest carrier current in
+	// its winding and at its terminals, over the cases evaluated
+	iwMax, itMax float64
 }
 
 func (a *accum) reset() {
@@ -487,6 +494,18 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	s := w.carr
 	v := mag(s.V[0][i]+alpha*s.V[1][i]) * scale
 	cur := mag(s.I[0][i]+alpha*s.I[1][i]) * scale
+	if e.esl[i] {
+		// series inductance: the dielectric sees I/(ωC), which near the
+		// part's own resonance exceeds the terminal voltage
+		if vc := cur / (2 * math.Pi * f * w.c.Elements[i].Value); vc > v {
+			v = vc
+		}
+	}
+	if e.selfC[i] {
+		a := &w.acc[i]
+		a.iwMax = math.Max(a.iwMax, cur)
+		a.itMax = math.Max(a.itMax, mag(s.It[0][i]+alpha*s.It[1][i])*scale)
+	}
 	avg := e.Cond.AvgRatio
 	var q [nQ]float64
 	var has [nQ]bool
@@ -777,6 +796,9 @@ func (e *Engine) harmonicSums(w *workspace) {
 				}
 				mv := worst(s.V[0][i], s.V[1][i]) * eh
 				mi := worst(s.I[0][i], s.I[1][i]) * eh
+				if e.esl[i] {
+					mv = math.Max(mv, mi/(2*math.Pi*s.F*c.Elements[i].Value))
+				}
 				ml := worst(s.L[0][i], s.L[1][i]) * eh
 				w.pkV[cls][i] += mv
 				w.pkL[cls][i] += ml

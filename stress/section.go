@@ -67,6 +67,9 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 	if l := el.Line(); l != nil {
 		p.Value = l.Len // a line's value is its length
 	}
+	if extra := e.parasiticFindings(el, a); len(extra) > 0 {
+		p.Findings = append(append([]ratings.Finding{}, p.Findings...), extra...)
+	}
 	for k := CaseKind(0); k < nKind; k++ {
 		if !a.kindSeen[k] {
 			continue
