@@ -471,8 +471,8 @@ type PartState struct {
 	// It is the terminal current where it differs from I: an inductor
 	// with self-capacitance carries I in its winding (flux, heat) and It
 	// at its terminals. Zero when they are the same.
-	It     complex128
-	Ploss  float64 // |I|²·R_loss
+	It    complex128
+	Ploss float64 // |I|²·R_loss
 }
 
 func nodeV(x []complex128, i int) complex128 {
