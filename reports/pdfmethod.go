@@ -89,7 +89,7 @@ func (p *pdfw) profiles() {
 		for _, q := range profileQ {
 			titles = append(titles, QuantityLabel(q))
 		}
-		cols := widths(titles, []float64{20, 10, 10, 10, 10, 12, 12, 11, 12}, "LRRRRRRRR")
+		cols := widths(titles, []float64{18, 10, 10, 10, 13, 12, 11, 11, 12}, "LRRRRRRRR")
 		var rows []trow
 		for _, class := range ratings.Classes() {
 			m, ok := pr.Factors[class]

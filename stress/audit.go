@@ -515,12 +515,6 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	q[qIrms] = irms
 	q[qPdiss] = (s.R[i]*cur*cur + k*k*w.sumP[cls][i]) * avg
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss] = true, true, true, true
-	// the gap between the part's terminals (gap=, or a clearance
-	// statement) sees the part's peak voltage: RF peaks with harmonics
-	// added as peaks add, and any DC across the part once the DC layer
-	// adds it to q[qVpk] above
-	q[qArc] = q[qVpk]
-	has[qArc] = true
 	var heat ratings.Heat
 	if rp := e.rparts[i]; rp != nil {
 		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
@@ -549,6 +543,12 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		}
 	}
 	w.heat = heat
+	// the gap between the part's terminals (gap=, or a clearance
+	// statement) sees the part's peak voltage: RF peaks with harmonics
+	// added as peaks add, and any DC across the part the DC layer adds to
+	// q[qVpk] above (set last, so it takes whatever went into the peak)
+	q[qArc] = q[qVpk]
+	has[qArc] = true
 	e.keep(w, i, ci, kind, &q, &has)
 }
 
