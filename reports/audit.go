@@ -188,6 +188,14 @@ func ConditionsText(c stress.Conditions) []string {
 	}
 	lines = append(lines, "harmonics "+h)
 	lines = append(lines, fmt.Sprintf("derating %s, ambient %s °C, altitude %s m", c.Derate, num(c.Ambient, 0), num(c.Altitude, 0)))
+	heat := "core temperature at steady state"
+	if t := c.HeatTime(); !math.IsInf(t, 1) {
+		heat = "core temperature after " + DurationText(t) + " at average power"
+	}
+	if c.Duty.Period > 0 {
+		heat += fmt.Sprintf(", keyed %s on in every %s", DurationText(c.Duty.On), DurationText(c.Duty.Period))
+	}
+	lines = append(lines, heat)
 	return lines
 }
 
