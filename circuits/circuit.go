@@ -228,18 +228,29 @@ func (c *Circuit) Mutual(i, j int) float64 {
 // Scaled returns a copy whose element values and Q are multiplied by the
 // given factors (nil means 1); used for tolerance trials.
 func (c *Circuit) Scaled(value, q []float64) *Circuit {
-	d := *c
-	d.Elements = make([]Element, len(c.Elements))
-	copy(d.Elements, c.Elements)
-	for i := range d.Elements {
+	return c.ScaleInto(&Circuit{}, value, q)
+}
+
+// ScaleInto is Scaled writing into dst, whose element storage is reused
+// when it has the room: a tolerance worker runs any number of trials
+// without allocating a circuit per trial. It returns dst.
+func (c *Circuit) ScaleInto(dst *Circuit, value, q []float64) *Circuit {
+	els := dst.Elements
+	*dst = *c
+	if cap(els) < len(c.Elements) {
+		els = make([]Element, len(c.Elements))
+	}
+	dst.Elements = els[:len(c.Elements)]
+	copy(dst.Elements, c.Elements)
+	for i := range dst.Elements {
 		if value != nil {
-			d.Elements[i].Value *= value[i]
+			dst.Elements[i].Value *= value[i]
 		}
-		if q != nil && d.Elements[i].Kind != Resistor {
-			d.Elements[i].qScale *= q[i]
+		if q != nil && dst.Elements[i].Kind != Resistor {
+			dst.Elements[i].qScale *= q[i]
 		}
 	}
-	return &d
+	return dst
 }
 
 // Load terminates the antenna port.

@@ -5,7 +5,10 @@ import (
 	"math"
 	"math/cmplx"
 	"os"
+	"runtime"
 	"strings"
+	"sync"
+	"sync/atomic"
 	"syscall"
 	"testing"
 	"time"
@@ -143,6 +146,110 @@ func benchTolerance(b *testing.B, trials, workers int) {
 
 func BenchmarkTolerance1000Workers1(b *testing.B) { benchTolerance(b, 1000, 1) }
 func BenchmarkTolerance1000Workers2(b *testing.B) { benchTolerance(b, 1000, 2) }
+
+// peakHeap runs f while sampling the live heap every 2 ms and returns the
+// largest HeapAlloc seen (runtime.MemStats) above the heap before f, and
+// the bytes f allocated in all.
+func peakHeap(f func()) (peak, total uint64) {
+	runtime.GC()
+	var ms runtime.MemStats
+	runtime.ReadMemStats(&ms)
+	base, alloc0 := ms.HeapAlloc, ms.TotalAlloc
+	var max atomic.Uint64
+	done := make(chan struct{})
+	var wg sync.WaitGroup
+	wg.Add(1)
+	go func() {
+		defer wg.Done()
+		t := time.NewTicker(2 * time.Millisecond)
+		defer t.Stop()
+		var m runtime.MemStats
+		for {
+			select {
+			case <-done:
+				return
+			case <-t.C:
+				runtime.ReadMemStats(&m)
+				if m.HeapAlloc > max.Load() {
+					max.Store(m.HeapAlloc)
+				}
+			}
+		}
+	}()
+	f()
+	close(done)
+	wg.Wait()
+	runtime.ReadMemStats(&ms)
+	if ms.HeapAlloc > max.Load() {
+		max.Store(ms.HeapAlloc)
+	}
+	p := max.Load()
+	if p < base {
+		p = base
+	}
+	return p - base, ms.TotalAlloc - alloc0
+}
+
+// benchTrialSettings is a light audit (one carrier, the matched load, no
+// harmonics) so a million trials take seconds: what grows with the number
+// of trials is the subject here, not the audit.
+var benchTrialSettings = []string{"points=1", "swr=1", "faults=none", "harmonics=none"}
+
+// BenchmarkTrialsMemory runs 100 000 and 1 000 000 trials in one go and
+// reports the peak live heap of each (runtime.MemStats, sampled) and
+// their ratio, and the bytes allocated per trial: with streaming
+// statistics and per-worker storage the peak must not grow with the
+// trials (target: 1M trials within 64 MiB). Run with -benchtime 1x.
+func BenchmarkTrialsMemory(b *testing.B) {
+	fx := build(b, benchSource(b), benchTrialSettings...)
+	var p1, p2, a2 uint64
+	for b.Loop() {
+		for _, n := range []int{100_000, 1_000_000} {
+			peak, total := peakHeap(func() {
+				if _, err := fx.eng.Tolerance(TolOptions{Trials: n, Seed: 1, Dist: "normal", Workers: 2}); err != nil {
+					b.Fatal(err)
+				}
+			})
+			if n == 100_000 {
+				p1 = peak
+			} else {
+				p2, a2 = peak, total
+			}
+		}
+	}
+	b.ReportMetric(float64(p1)/(1<<20), "MiB-peak-100k")
+	b.ReportMetric(float64(p2)/(1<<20), "MiB-peak-1M")
+	b.ReportMetric(float64(p2)/float64(p1), "peak-ratio")
+	b.ReportMetric(float64(a2)/1e6, "B-alloc/trial")
+}
+
+// BenchmarkTrialsWorkers runs the same 2000 trials of the default audit
+// on one and on two workers and reports the wall-time speed-up and the
+// CPU time per trial of each: on a quiet 2-core machine the speed-up is
+// near 2 and the CPU per trial the same for both; on a busy one the
+// speed-up falls but the CPU per trial still shows whether the work per
+// trial grew.
+func BenchmarkTrialsWorkers(b *testing.B) {
+	fx := build(b, benchSource(b), benchDefault...)
+	const trials = 2000
+	var wall, cpu [3]time.Duration
+	for b.Loop() {
+		for _, wk := range []int{1, 2} {
+			c0, t0 := cpuTime(), time.Now()
+			if _, err := fx.eng.Tolerance(TolOptions{Trials: trials, Seed: 1, Dist: "normal", Workers: wk}); err != nil {
+				b.Fatal(err)
+			}
+			wall[wk] += time.Since(t0)
+			cpu[wk] += cpuTime() - c0
+		}
+	}
+	n := float64(b.N) * trials
+	b.ReportMetric(wall[1].Seconds()/wall[2].Seconds(), "speedup-1to2")
+	b.ReportMetric(cpu[1].Seconds()*1e6/n, "cpu-µs/trial-1w")
+	b.ReportMetric(cpu[2].Seconds()*1e6/n, "cpu-µs/trial-2w")
+	b.ReportMetric(wall[1].Seconds()*1e6/n, "wall-µs/trial-1w")
+	b.ReportMetric(wall[2].Seconds()*1e6/n, "wall-µs/trial-2w")
+}
 
 // ladderSource is a long lowpass ladder of the given number of parts:
 // alternately a shunt capacitor and a series coil, near the constant-k

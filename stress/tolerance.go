@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"rfstress/circuits"
 	"runtime"
 	"sync"
 	"sync/atomic"
@@ -123,17 +124,22 @@ func (e *Engine) Tolerance(opt TolOptions) (*Tolerance, error) {
 			}()
 			w := e.newWorkspace(e.C)
 			vf, qf := make([]float64, n), make([]float64, n)
+			// one generator and one trial circuit per worker, reseeded and
+			// rewritten per trial: nothing is allocated per trial
+			pcg := rand.NewPCG(opt.Seed, 0)
+			rng := rand.New(pcg)
+			var trial circuits.Circuit
 			for {
 				t := int(next.Add(1) - 1)
 				if t >= opt.Trials {
 					return
 				}
-				rng := rand.New(rand.NewPCG(opt.Seed, uint64(t)))
+				pcg.Seed(opt.Seed, uint64(t))
 				for i := range vf {
 					vf[i] = draw(rng, opt.Dist, tolV[i])
 					qf[i] = draw(rng, opt.Dist, tolQ[i])
 				}
-				w.rebind(e.C.Scaled(vf, qf))
+				w.rebind(e.C.ScaleInto(&trial, vf, qf))
 				if _, err := e.run(w); err != nil {
 					fail(err)
 					return
