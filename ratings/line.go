@@ -34,7 +34,7 @@ func (p *Part) MatchedPerMetre(pw, f float64) float64 {
 // the line's input metre by 2α·P; the hottest metre under any load is
 // judged against that. Between pmax points the rating is interpolated,
 // outside them held at the end value.
-func (p *Part) lineHeatLimit(f float64) Limit {
+func (p *Part) lineHeatLimit(f float64, text bool) Limit {
 	fac := p.prof.Factor(ClassLine, Pm)
 	l := Limit{Quantity: Pm, Factor: fac}
 	switch {
@@ -48,6 +48,9 @@ func (p *Part) lineHeatLimit(f float64) Limit {
 	pw := circuits.InterpLogLog(p.pmax.Points, f)
 	l.Abs = p.MatchedPerMetre(pw, f)
 	l.Derated = l.Abs * fac
+	if !text {
+		return l
+	}
 	l.Basis = fmt.Sprintf("pmax=%s in netlist: %s matched at %s heats %s per metre (2α·P, loss %.3g dB/100 m); the connector may be the weaker part",
 		p.pmax.Raw, circuits.FormatSI(pw, "W"), circuits.FormatHz(f), circuits.FormatSI(l.Abs, "W/m"), p.line.Alpha(f)*100/0.11512925464970229)
 	return l

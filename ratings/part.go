@@ -352,7 +352,7 @@ func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 		given(Vpk, p.vpk, p.Class)
 	case circuits.Line:
 		given(Vpk, p.vpk, p.Class)
-		out = append(out, p.lineHeatLimit(f))
+		out = append(out, p.lineHeatLimit(f, text))
 	case circuits.Block:
 		// a measured filter is rated by the heat it can shed; a port
 		// voltage rating is optional (its connectors, its parts inside)
