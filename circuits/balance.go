@@ -47,7 +47,7 @@ func (k Check) Finding(f float64) string {
 
 // balance is the relative power-balance error of a full solve.
 func (r *Result) balance() float64 {
-	return math.Abs(r.Pin-r.Pout-r.Ploss) / r.Pavail
+	return math.Abs(r.Pin-r.Pout-r.Pcm-r.Ploss) / r.Pavail
 }
 
 // SolveChecked is Solve with the power balance checked: when it is off by
@@ -84,8 +84,10 @@ func (c *Circuit) readout(f, p, e float64, load Load, x []complex128) *Result {
 	c.PartStates(x, f, r.Parts)
 	r.Nodes = append([]complex128(nil), x[:len(c.Nodes)]...)
 	r.Vin = x[c.In]
-	r.Iin = (complex(e, 0) - r.Vin) / c.Zin
-	r.Vout = x[c.Out]
+	r.Iin = (complex(e, 0) - r.Vin) / c.Zs
+	r.Vout = c.VOut(x)
+	r.Icm = c.CommonModeI(x)
+	r.Pcm = real(c.ZCM) * abs2(r.Icm)
 	if !load.Open {
 		r.Iout = x[c.Size()]
 	}

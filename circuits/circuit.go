@@ -539,6 +539,7 @@ type Result struct {
 	Ploss    float64 // Σ part dissipation
 	Zin      complex128
 	Icm      complex128 // common-mode current of a balanced load (cm=)
+	Pcm      float64    // power into the balanced load's common-mode impedance
 }
 
 // Solve drives the input port with available power p at f into load.
@@ -551,25 +552,7 @@ func (c *Circuit) Solve(f, p float64, load Load) (*Result, error) {
 	x := make([]complex128, fz.N())
 	c.SourceRHS(x, complex(e, 0))
 	fz.Solve(x)
-	r := &Result{F: f, EMF: e, Parts: make([]PartState, len(c.Elements)), Pavail: p}
-	c.PartStates(x, f, r.Parts)
-	r.Nodes = append([]complex128(nil), x[:len(c.Nodes)]...)
-	r.Vin = x[c.In]
-	r.Iin = (complex(e, 0) - r.Vin) / c.Zs
-	r.Vout = c.VOut(x)
-	r.Icm = c.CommonModeI(x)
-	if !load.Open {
-		r.Iout = x[c.Size()]
-	}
-	r.Pin = real(r.Vin * conj(r.Iin))
-	r.Pout = real(r.Vout * conj(r.Iout))
-	for _, ps := range r.Parts {
-		r.Ploss += ps.Ploss
-	}
-	if r.Iin != 0 {
-		r.Zin = r.Vin / r.Iin
-	}
-	return r, nil
+	return c.readout(f, p, e, load, x), nil
 }
 
 func conj(z complex128) complex128 { return complex(real(z), -imag(z)) }

@@ -26,6 +26,10 @@ type Split struct {
 	Node  [2][]complex128
 	Vin   [2]complex128
 	Zs    complex128
+	// Cm is each excitation\'s common-mode current into a balanced load\'s
+	// centre impedance Zcm (zero without cm=).
+	Cm  [2]complex128
+	Zcm complex128
 }
 
 // NewSplit allocates a split for c.
@@ -74,7 +78,7 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 	if err := w.fz.Refactor(f); err != nil {
 		return err
 	}
-	s.F, s.Zs = f, c.Zs
+	s.F, s.Zs, s.Zcm = f, c.Zs, c.ZCM
 	for k := 0; k < 2; k++ {
 		x := w.x
 		for i := range x {
@@ -97,6 +101,7 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 		}
 		copy(s.Node[k], x[:len(c.Nodes)])
 		s.Vin[k] = x[c.In]
+		s.Cm[k] = c.CommonModeI(x)
 		if k == 0 {
 			s.Voc = c.VOut(x)
 		} else {

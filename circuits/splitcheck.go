@@ -30,9 +30,12 @@ func (w *SplitWork) refill(s *Split, f float64) {
 	for k := 0; k < 2; k++ {
 		b := make([]complex128, n)
 		if k == 0 {
-			b[c.In] = 1 / c.Zin
+			b[c.In] = 1 / c.Zs
 		} else {
 			b[c.Out] = 1
+			if c.OutB >= 0 {
+				b[c.OutB] = -1
+			}
 		}
 		x := append([]complex128(nil), b...)
 		w.fz.Solve(x)
@@ -40,14 +43,15 @@ func (w *SplitWork) refill(s *Split, f float64) {
 		c.partStates(x, f, w.parts, false)
 		for i, ps := range w.parts {
 			s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
-			s.V2[k][i], s.I2[k][i] = ps.V2, ps.I2
+			s.V2[k][i], s.I2[k][i], s.It[k][i] = ps.V2, ps.I2, ps.It
 		}
 		copy(s.Node[k], x[:len(c.Nodes)])
 		s.Vin[k] = x[c.In]
+		s.Cm[k] = c.CommonModeI(x)
 		if k == 0 {
-			s.Voc = x[c.Out]
+			s.Voc = c.VOut(x)
 		} else {
-			s.Zth = x[c.Out]
+			s.Zth = c.VOut(x)
 		}
 	}
 }
@@ -62,6 +66,7 @@ func (w *SplitWork) refill(s *Split, f float64) {
 func (s *Split) Balance() float64 {
 	var loss [2]float64
 	for k := 0; k < 2; k++ {
+		loss[k] = real(s.Zcm) * abs2(s.Cm[k]) // a balanced load's common mode
 		for i := range s.R {
 			if s.Ports[i] {
 				loss[k] += real(s.V[k][i]*conj(s.I[k][i])) + real(s.V2[k][i]*conj(s.I2[k][i]))
