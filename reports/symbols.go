@@ -65,6 +65,7 @@ var symbolDrawers = map[circuits.Kind]symbolDrawer{
 	circuits.Resistor:  drawResistor,
 	circuits.Block:     drawBlock,
 	circuits.Line:      drawLine,
+	circuits.Connector: drawConnector,
 }
 
 const symW = 0.35 // symbol stroke, mm
@@ -164,6 +165,22 @@ func drawLine(cv canvas, f frame, _ ssymbol) {
 		}
 		cv.poly(pts, false, false)
 	}
+}
+
+// drawConnector: a plug in its socket (IEC 60617-3: a pin meeting a
+// socket's arc).
+func drawConnector(cv canvas, f frame, _ ssymbol) {
+	const n = 5.0
+	u0, u1 := f.body(n)
+	cv.line(f.at(0, 0), f.at(u0+2.2, 0))
+	cv.line(f.at(u0+2.2, 0.9), f.at(u0+2.2, -0.9))
+	var arc []spt
+	for k := 0; k <= 12; k++ {
+		a := math.Pi/2 + math.Pi*float64(k)/12
+		arc = append(arc, f.at(u1+1.6*math.Cos(a)-0.4, 1.6*math.Sin(a)))
+	}
+	cv.poly(arc, false, false)
+	cv.line(f.at(u1-0.4, 0), f.at(f.length, 0))
 }
 
 // drawBox is the general element: a rectangle with a cross-line, for kinds
