@@ -74,7 +74,21 @@ func (p *pdfw) usePlot(s *stress.Section, u *stress.BandUse, top float64) {
 			}
 		}
 	}
-	lo := 0.1
+	// the bottom of the scale: a round share under the smallest use shown
+	lo, least := 0.5, math.Inf(1)
+	for _, i := range idx {
+		for _, v := range u.Use[i] {
+			if finite(v) && v > 0 {
+				least = math.Min(least, v)
+			}
+		}
+	}
+	for _, step := range []float64{0.5, 0.2, 0.1, 0.05, 0.02, 0.01} {
+		lo = step
+		if step <= least/1.2 {
+			break
+		}
+	}
 	yOf := func(v float64) float64 {
 		v = math.Max(v, lo)
 		return y0 + usePlotH - math.Log(v/lo)/math.Log(hi/lo)*usePlotH
@@ -117,7 +131,7 @@ func (p *pdfw) usePlot(s *stress.Section, u *stress.BandUse, top float64) {
 	p.text(colMuted)
 	f.SetLineWidth(0.15)
 	p.draw(colRule)
-	for _, t := range []float64{0.1, 0.2, 0.5, 1, 2, 5, 10, 20, 50, 100, 200} {
+	for _, t := range []float64{0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10, 20, 50, 100, 200} {
 		if t < lo || t > hi {
 			continue
 		}
@@ -306,9 +320,9 @@ func (p *pdfw) loadChart(s *stress.Section, fp *FilterPlot, top float64) {
 	for _, c := range fp.Loads {
 		switch c.Kind {
 		case stress.FaultOpen:
-			p.cellAt(cx+chartR+1.2, cy-1.5, 10, 3, "open", "L")
+			p.cellAt(cx+chartR-1, cy+2.2, 10, 3, "open", "L")
 		case stress.FaultShort:
-			p.cellAt(cx-chartR-11.2, cy-1.5, 10, 3, "short", "R")
+			p.cellAt(cx-chartR-9, cy+2.2, 10, 3, "short", "R")
 		}
 	}
 	// the case that bound the limiting part, in its verdict's colour
@@ -343,13 +357,15 @@ func (p *pdfw) loadChart(s *stress.Section, fp *FilterPlot, top float64) {
 				p.font("B", 6.5)
 				p.text(col)
 				p.cellAt(cx-chartR-6, cy+chartR+1.5, 2*chartR+12, 3,
-					p.fit(fmt.Sprintf("× worst for %s %s: %s, %s", lim.Name, QuantityLabel(s.LimitQ), what, circuits.FormatHz(c.F)), 2*chartR+12), "C")
+					p.fit(fmt.Sprintf("× worst for %s %s:", lim.Name, QuantityLabel(s.LimitQ)), 2*chartR+12), "C")
+				p.cellAt(cx-chartR-6, cy+chartR+4.5, 2*chartR+12, 3,
+					p.fit(what+", "+circuits.FormatHz(c.F), 2*chartR+12), "C")
 			}
 		}
 	}
 	p.font("", 6)
 	p.text(colMuted)
-	p.cellAt(cx-chartR-6, cy+chartR+5, 2*chartR+12, 3, p.fit(legend, 2*chartR+12), "C")
+	p.cellAt(cx-chartR-6, cy+chartR+8, 2*chartR+12, 3, p.fit(legend, 2*chartR+12), "C")
 	p.text(colInk)
 	f.SetLineWidth(0.2)
 }

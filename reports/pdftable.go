@@ -356,8 +356,8 @@ func (p *pdfw) partTable(s *stress.Section) {
 
 // detailCols are the columns of a part's small table of stresses.
 var detailCols = []tcol{
-	{"quantity", 22, "L"}, {"worst", 17, "R"}, {"at (the worst case)", 50, "L"}, {"rating, from", 36, "L"},
-	{"derated", 16, "R"}, {"use", 12, "R"}, {"verdict", 18, "L"},
+	{"quantity", 20, "L"}, {"worst", 17, "R"}, {"at (the worst case)", 40, "L"}, {"rating, from", 52, "L"},
+	{"derated", 15, "R"}, {"use", 11, "R"}, {"verdict", 16, "L"},
 }
 
 // stressRow is one quantity of one part as a row of the part's small
