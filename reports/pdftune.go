@@ -15,7 +15,7 @@ import (
 // is the open bilinear map Γ = (Z − R0)/(Z + R0) drawn here from its
 // circles of constant resistance and reactance (Smith 1939).
 func (p *pdfw) tunePage(v *TuneView) {
-	title := "Tuning chart: " + v.File
+	title := "Tuning chart: " + Headline(v.File)
 	p.newPage(title)
 	p.text(colMuted)
 	p.para(8.5, fmt.Sprintf("Loads from %s. Each load is matched to SWR %s or better at the transmitter by setting %s; "+

@@ -96,7 +96,7 @@ func (v *TuneView) partsText() string {
 
 // WriteTuneText writes the tuning chart as a text table.
 func WriteTuneText(w io.Writer, v *TuneView) error {
-	fmt.Fprintf(w, "%s\n", esc(heading(v.File, v.Title)))
+	fmt.Fprintf(w, "%s\n", Headline(heading(v.File, v.Title)))
 	fmt.Fprintf(w, "  tuning chart: loads from %s, matched to SWR %s or better at port in (%s)\n", esc(v.LoadSource), num(v.TargetSWR, 2), circuits.FormatComplex(v.Zs))
 	fmt.Fprintf(w, "  chosen by policy %s\n", v.PolicyNote)
 	fmt.Fprintf(w, "  variable parts: %s\n", v.partsText())
@@ -137,7 +137,7 @@ func WriteTuneCSV(w io.Writer, v *TuneView) error {
 		head = append(head, p.Name+"_"+p.Unit)
 	}
 	head = append(head, "swr", "zin_r_ohm", "zin_x_ohm", "loss_pct", "efficiency_pct", "vpk_v", "policy", "verdict", "limit")
-	if err := cw.Write(head); err != nil {
+	if err := cw.Write(csvSafeRow(head)); err != nil {
 		return err
 	}
 	for _, r := range v.Rows {
@@ -147,7 +147,7 @@ func WriteTuneCSV(w io.Writer, v *TuneView) error {
 		}
 		rec = append(rec, csvFull(r.SWR), csvFull(real(r.Zin)), csvFull(imag(r.Zin)), csvFull(100*r.LossFrac), csvFull(100*r.Eff), csvFull(r.VpkW),
 			v.Policy, RowVerdictText(r), r.Limit)
-		if err := cw.Write(rec); err != nil {
+		if err := cw.Write(csvSafeRow(rec)); err != nil {
 			return err
 		}
 	}
@@ -165,15 +165,7 @@ func csvFull(x float64) string {
 
 // esc shows text from files and the command line with control
 // characters escaped.
-func esc(s string) string {
-	for _, r := range s {
-		if r < 0x20 || (r >= 0x7F && r < 0xA0) {
-			q := strconv.Quote(s)
-			return q[1 : len(q)-1]
-		}
-	}
-	return s
-}
+func esc(s string) string { return circuits.Escape(s) }
 
 // JSONTune is a tuning chart in JSON.
 type JSONTune struct {

@@ -28,7 +28,7 @@ func addTuneFlags(fs interface {
 	return &tuneFlags{
 		loads:   fs.String("loads", "", "load `set`: a CSV file (header frequency,R,X), a one-port Touchstone .s1p file, or swr=S (the region within SWR S around port out's z)"),
 		swr:     fs.Float64("match-swr", tuning.DefaultSWR, "`SWR` at the transmitter a setting must reach to count as a match"),
-		policy:  fs.String("tune-policy", "least-loss", "which match to choose when several do: least-loss, least-voltage or largest-c"),
+		policy:  fs.String("tune-policy", "least-loss", "which match to choose when several do: `policy` least-loss, least-voltage or largest-c"),
 		workers: fs.Int("tune-workers", 0, "`number` of loads tuned at once (0: one per CPU); results do not depend on it"),
 	}
 }
