@@ -40,9 +40,12 @@ func TestGapAttributes(t *testing.T) {
 			t.Errorf("clearance shows %s: %v", q, k1.Shows(q))
 		}
 	}
+	// a coated board: ok up to the working guide (3 mm × 500 V/mm, the
+	// standard profile uses it as it is), rated at the voltage at which
+	// the same gap through air would arc
 	lims := k1.Limits(7e6)
-	if len(lims) != 1 || lims[0].Quantity != Arc || lims[0].Abs != CoatedVpkPerMM*3 {
-		t.Errorf("K1 limits %+v, want one arc limit of %g V", lims, CoatedVpkPerMM*3)
+	if len(lims) != 1 || lims[0].Quantity != Arc || lims[0].Derated != CoatedVpkPerMM*3 || lims[0].Abs != ArcVoltage(3e-3, SeaLevel) {
+		t.Errorf("K1 limits %+v, want ok to %g V, rated %g V", lims, CoatedVpkPerMM*3, ArcVoltage(3e-3, SeaLevel))
 	}
 	for _, c := range []struct{ src, want string }{
 		{"clearance K1 n1 gnd gap=1mm medium=glass\n", `g.net:4:36: clearance K1: unknown medium "glass" (one of air, board, coated)`},

@@ -403,22 +403,31 @@ func (p *Part) Atmosphere() Atmosphere {
 	return *p.air
 }
 
-// arcLimit is the limit of the voltage across the part's clearance: for air
-// the voltage that would arc, for a board surface the working-voltage
-// guide; derated by the profile's gap class.
+// arcLimit is the limit of the voltage across the part's clearance. For
+// air: the voltage that would arc is the rating, derated by the profile's
+// gap-air factor. For a board surface: the working-voltage guide (times
+// the profile's gap-board factor) is the limit for ok, and the voltage at
+// which the same gap through air would arc is the rating, since the
+// surface flashes over at or below it; between the two the verdict is
+// marginal, so a guide, which is advice, never fails a design alone.
 func (p *Part) arcLimit(text bool) Limit {
 	g := p.Gap
 	a := p.Atmosphere()
 	fac := p.prof.Factor(g.Class(), Arc)
-	v := ClearanceLimit(g.Medium, g.Gap, a)
-	l := Limit{Quantity: Arc, Abs: v, Derated: v * fac, Factor: fac}
+	arc := ArcVoltage(g.Gap, a)
+	l := Limit{Quantity: Arc, Abs: arc, Derated: arc * fac, Factor: fac}
+	if g.Medium != MediumAir {
+		guide := ClearanceLimit(g.Medium, g.Gap, a) * fac
+		l.Derated = math.Min(guide, arc)
+		l.Factor = l.Derated / arc
+	}
 	if !text {
 		return l
 	}
 	switch g.Medium {
 	case MediumAir:
 		l.Basis = fmt.Sprintf("air gap %s would arc at %s peak: Paschen breakdown %s (uniform field, p·d %.3g Torr·cm at %s) × %.2g for RF × %.2g for edges",
-			mmText(g.Gap), circuits.FormatSI(v, "V"), circuits.FormatSI(AirUniformBreakdown(a.PdTorrCm(g.Gap)), "V"),
+			mmText(g.Gap), circuits.FormatSI(arc, "V"), circuits.FormatSI(AirUniformBreakdown(a.PdTorrCm(g.Gap)), "V"),
 			a.PdTorrCm(g.Gap), a.Describe(), RFFactor, FieldFactor)
 	default:
 		per := BoardVpkPerMM
@@ -426,8 +435,8 @@ func (p *Part) arcLimit(text bool) Limit {
 		if g.Medium == MediumCoated {
 			per, what = CoatedVpkPerMM, "a conformally coated board surface"
 		}
-		l.Basis = fmt.Sprintf("working-voltage guide %.0f V peak per mm along %s (creepage-style, common practice; IEC 60664-1 family) over %s; the same gap in air would arc at %s",
-			per, what, mmText(g.Gap), circuits.FormatSI(ArcVoltage(g.Gap, a), "V"))
+		l.Basis = fmt.Sprintf("working-voltage guide %.0f V peak per mm along %s over %s (creepage-style, common practice; IEC 60664-1 family; advice: beyond it marginal); the same gap in air would arc at %s, which the surface does not exceed",
+			per, what, mmText(g.Gap), circuits.FormatSI(arc, "V"))
 	}
 	return l
 }

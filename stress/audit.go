@@ -110,8 +110,9 @@ type ClearanceResult struct {
 	Medium string
 	// ArcV is the peak voltage at which the gap would arc in air (for a
 	// board surface: the same gap through air, which the surface does
-	// not exceed); Limit the voltage it is judged against before
-	// derating (ArcV for air, the working-voltage guide for boards).
+	// not exceed; it is the rating either way); Limit the working value
+	// before the profile's factor (ArcV for air, the working-voltage
+	// guide for boards); Derated the limit for ok.
 	ArcV    float64
 	Limit   float64
 	Derated float64

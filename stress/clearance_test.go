@@ -150,9 +150,12 @@ audit power=100 freq=7M harmonics=-10 harmonic-max=2
 	if got := k.Stress[ratings.Arc].Value; relErr(got, want) > 2e-5 {
 		t.Errorf("K1 peak %.3f V, hand %.3f V", got, want)
 	}
-	// 0.5 mm of bare board holds 70 V by the working guide: 131 V fails
-	if k.Verdict != ratings.Fail || k.Clearance.Limit != ratings.BoardVpkPerMM*0.5 {
-		t.Errorf("K1 verdict %s against %.1f V, want fail against %.1f V", k.Verdict, k.Clearance.Limit, ratings.BoardVpkPerMM*0.5)
+	// 0.5 mm of bare board holds 70 V by the working guide, and the same
+	// gap through air would arc near 1.5 kV: 131 V is beyond the guide
+	// (advice) but far from arcing, so marginal, not fail
+	if k.Verdict != ratings.Marginal || k.Clearance.Limit != ratings.BoardVpkPerMM*0.5 || k.Clearance.Derated != ratings.BoardVpkPerMM*0.5 {
+		t.Errorf("K1 verdict %s against %.1f V (derated %.1f V), want marginal against the %.1f V guide",
+			k.Verdict, k.Clearance.Limit, k.Clearance.Derated, ratings.BoardVpkPerMM*0.5)
 	}
 }
 

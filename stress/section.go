@@ -143,7 +143,7 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 		}
 		if q == ratings.Arc && rp.Gap != nil {
 			p.Clearance = &ClearanceResult{Gap: rp.Gap.Gap, Medium: rp.Gap.Medium,
-				ArcV: ratings.ArcVoltage(rp.Gap.Gap, rp.Atmosphere()), Limit: st.Limit.Abs, Derated: st.Limit.Derated,
+				ArcV: ratings.ArcVoltage(rp.Gap.Gap, rp.Atmosphere()), Limit: ratings.ClearanceLimit(rp.Gap.Medium, rp.Gap.Gap, rp.Atmosphere()), Derated: st.Limit.Derated,
 				Vpk: st.Value, Needed: rp.GapNeeded(st.Value)}
 		}
 		if st.Verdict > p.Verdict {
