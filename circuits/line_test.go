@@ -223,3 +223,28 @@ func TestLineUnits(t *testing.T) {
 		}
 	}
 }
+
+// TestMaxAlongEnvelope: on an electrically very long line (a harmonic far
+// up a long run) the maximum is the envelope |F|·e^{−αz} + |B|·e^{αz} at
+// an end: never below a dense scan of 2 000 000 points, and within 1 % of
+// it (the crests reach the envelope to within its change over one half
+// wavelength).
+func TestMaxAlongEnvelope(t *testing.T) {
+	l := &LineSpec{Z0: 50, Len: 1000, VF: 0.66, Loss: []Point{{V: 0.05}}}
+	const f = 100e6 // 1000 m: 1010 half wavelengths at 100 MHz (scanned), 20 200 at 2 GHz (envelope)
+	w0 := Wave{complex(1, 0.3), complex(0.4, -0.2)}
+	for _, fr := range []float64{f, 20 * f} {
+		got, _ := l.MaxAlong(fr, w0, Wave{}, 0)
+		g := l.Gamma(fr)
+		const m = 2000000
+		var scan float64
+		for k := 0; k <= m; k++ {
+			if v := cmplx.Abs(w0.At(g, l.Len*float64(k)/m)); v > scan {
+				scan = v
+			}
+		}
+		if got < scan*(1-1e-12) || got > scan*1.01 {
+			t.Errorf("f=%g: MaxAlong %g, dense scan %g", fr, got, scan)
+		}
+	}
+}

@@ -45,7 +45,9 @@ const samplesPerHalfWave = 32
 // at 32 points per half wavelength, every scanned crest that could hold the
 // maximum (its sample plus a Lipschitz bound on g over one step reaches the
 // best sample) is bracketed by its neighbours and refined by golden-section
-// search, and the result is never below any sample.
+// search, and the result is never below any sample. A line of more than
+// 20 000 half wavelengths is judged by its envelope instead (envelopeMax),
+// an upper bound.
 func (l *LineSpec) MaxAlong(f float64, w0, w1 Wave, r float64) (max, at float64) {
 	g := l.Gamma(f)
 	L := l.Len
@@ -61,13 +63,14 @@ func (l *LineSpec) MaxAlong(f float64, w0, w1 Wave, r float64) (max, at float64)
 	}
 	n := 2
 	if b := imag(g); b > 0 {
-		n = int(math.Ceil(L / (math.Pi / b) * samplesPerHalfWave))
+		hw := L / (math.Pi / b) // half wavelengths along the line
+		if hw > maxHalfWaves {
+			return envelopeMax(g, L, w0, w1, r)
+		}
+		n = int(math.Ceil(hw * samplesPerHalfWave))
 	}
 	if n < 2 {
 		n = 2
-	}
-	if n > 1<<22 {
-		n = 1 << 22 // a line of over 100 000 wavelengths: still dense enough per crest for the bound below
 	}
 	h := L / float64(n)
 	// Lipschitz bound: |X'(z)| = |γ|·|−F e^{−γz} + B e^{γz}| ≤ |γ|(|F| + |B|·e^{αL}) for α ≥ 0
@@ -105,6 +108,30 @@ func (l *LineSpec) MaxAlong(f float64, w0, w1 Wave, r float64) (max, at float64)
 		prev2, prev = prev, next
 	}
 	return best, bestZ
+}
+
+// maxHalfWaves bounds the scan: a line longer than this many half
+// wavelengths (a harmonic far up a long run) is judged by its envelope.
+const maxHalfWaves = 20000
+
+// envelopeMax is an upper bound of |w0(z)| + r·|w1(z)|: each wave is at
+// most |F|·e^{−αz} + |B|·e^{αz}, a convex function of z, so the bound is
+// largest at an end. Over many half wavelengths the standing wave's crests
+// reach this envelope to within the change of the envelope over one half
+// wave, so the bound is close as well as safe.
+func envelopeMax(g complex128, L float64, w0, w1 Wave, r float64) (float64, float64) {
+	env := func(z float64) float64 {
+		d, u := math.Exp(-real(g)*z), math.Exp(real(g)*z)
+		v := cmplx.Abs(w0.F)*d + cmplx.Abs(w0.B)*u
+		if r > 0 {
+			v += r * (cmplx.Abs(w1.F)*d + cmplx.Abs(w1.B)*u)
+		}
+		return v
+	}
+	if a, b := env(0), env(L); b > a {
+		return b, L
+	}
+	return env(0), 0
 }
 
 // golden finds the maximum of a unimodal f on [a, b] by golden-section

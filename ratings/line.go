@@ -29,6 +29,28 @@ func (p *Part) MatchedPerMetre(pw, f float64) float64 {
 	return 2 * p.line.Alpha(f) * pw
 }
 
+// lineRemedy is what brings a line's hottest metre within its heating
+// limit: the matched power rating that would (stress/(2α) over the
+// derating factor), or loss figures to judge it at all.
+func (p *Part) lineRemedy(l Limit, stress, f float64) string {
+	a := 0.0
+	if p.line != nil {
+		a = p.line.Alpha(f)
+	}
+	switch {
+	case a <= 0:
+		return "give loss= to judge the line's heating"
+	case p.pmax == nil:
+		return "give pmax= (the line's matched power rating) to judge its heating"
+	}
+	fac := l.Factor
+	if !(fac > 0) {
+		fac = 1
+	}
+	need := stress / (2 * a) / fac
+	return fmt.Sprintf("a line rated ≥ %s matched at %s, or one of lower loss, or a lower SWR on it", circuits.FormatSI(need, "W"), circuits.FormatHz(f))
+}
+
 // lineHeatLimit: a line's power rating (pmax= points, interpolated
 // log-log like q) is a heating limit. Matched, the rated power P heats
 // the line's input metre by 2α·P; the hottest metre under any load is

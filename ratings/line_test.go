@@ -2,6 +2,7 @@ package ratings
 
 import (
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -38,6 +39,17 @@ line W a b z0=50 len=20m vf=0.66 loss=1.5@10M,4.9@100M vpk=5k pmax=1.2k@10M,500@
 	}
 	if l := p.Limits(10e6)[0]; l.Quantity != Vpk || l.Abs != 5000 || l.Derated != 3000 {
 		t.Errorf("dielectric limit %+v, want vpk 5 kV derated by 0.6", l)
+	}
+	// twice the absolute limit at 10 MHz needs a line rated 2 × 1.2 kW,
+	// over the 0.8 factor: 3 kW
+	var l10 Limit
+	for _, l := range p.Limits(10e6) {
+		if l.Quantity == Pm {
+			l10 = l
+		}
+	}
+	if r := p.Remedy(l10, 2*l10.Abs, RemedyContext{F: 10e6}); !strings.Contains(r, "3.00 kW") {
+		t.Errorf("remedy %q, want a 3 kW matched rating", r)
 	}
 	// without loss= the heating is not judged, with a note
 	s = mustPrepare(t, "port in a z=50\nport out b z=50\nline W a b z0=50 len=20m vf=0.66 pmax=1k\n", BuiltinProfile("standard"))

@@ -672,6 +672,8 @@ func (p *Part) Remedy(l Limit, stress float64, ctx RemedyContext) string {
 		return ""
 	}
 	switch l.Quantity {
+	case Pm:
+		return p.lineRemedy(l, stress, ctx.F)
 	case Bpk, Bavg:
 		if l.Derated <= 0 || p.Core == nil {
 			break

@@ -118,7 +118,7 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 				factor = 1
 			}
 			st.Buy, st.BuyText = ratings.BuyRating(q, st.Value, factor)
-			if q == ratings.Bpk || q == ratings.Bavg || q == ratings.Temp || q == ratings.Jrms || q == ratings.Arc {
+			if q == ratings.Bpk || q == ratings.Bavg || q == ratings.Temp || q == ratings.Jrms || q == ratings.Arc || q == ratings.Pm {
 				// physical figures: core size, cooling surface, wire diameter
 				// at the case of the largest use: the limit may vary with f
 				c, at := s.Case(st.Case), st.Value
