@@ -31,6 +31,8 @@ var fuzzSeeds = []string{
 	"title \xff\xfe\n",
 	"capacitor Cµ n1 gnd 10µ q=1e400\r\nport in n1 z=50\r\n",
 	"port in a z=50 # comment\n#port out b\nresistor R a gnd 5 # x=y\n",
+	"clearance K a gnd gap=1mm\nport in a z=50\nport out b z=50\nconnector J a b vpk=1k irms=5\nresistor R b gnd 50 gap=2mm medium=board\n",
+	"clearance K a a gap=0mm medium=\nconnector J a\nclearance K2 x y gap=1\n",
 }
 
 // FuzzParse: Parse must never panic on any input; whatever parses must
