@@ -260,8 +260,9 @@ func WriteSchematicSVG(w io.Writer, b *stress.Bank) error {
 		drawSchematic(cv, sc)
 		fmt.Fprintf(&body, "<g transform=\"translate(2 %s)\">\n%s</g>\n", f2(y), cv.b.String())
 		y += sc.H + 6
-		if sc.W+4 > width {
-			width = sc.W + 4
+		// room to spare: a viewer may set the labels in a wider font
+		if sc.W+12 > width {
+			width = sc.W + 12
 		}
 		if tw := measure(title, 3.2/0.3528, true) + 4; tw > width {
 			width = tw

@@ -591,7 +591,20 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 	portLabel(nl.In, xIn, 'R', xIn-2)
 	portLabel(nl.Out, xOut, 'L', xOut+2)
 	sc.wires = append(sc.wires, [2]spt{{xIn, yG}, {xOut, yG}})
-	sc.grounds = append(sc.grounds, spt{(xIn + xOut) / 2, yG})
+	// the earth mark: in the middle of the widest stretch of rail that no
+	// shunt part meets, so it never sits on a junction
+	xs := []float64{xIn, xOut}
+	for _, x := range shuntX {
+		xs = append(xs, x)
+	}
+	sort.Float64s(xs)
+	gx, best := (xIn+xOut)/2, -1.0
+	for i := 1; i < len(xs); i++ {
+		if d := xs[i] - xs[i-1]; d > best+1e-9 {
+			gx, best = (xs[i]+xs[i-1])/2, d
+		}
+	}
+	sc.grounds = append(sc.grounds, spt{gx, yG})
 	// couplings: a dashed path between the two coils, labelled
 	var brackets [][3]float64
 	for _, k := range nl.Couplings {
