@@ -105,12 +105,15 @@ func (e *Engine) txCase(w *workspace, ci int, kind CaseKind, alpha complex128) {
 // any sampled load.
 func (e *Engine) txCircle(w *workspace, first int) {
 	s := w.carr
-	for j, l := range e.circle {
-		e.txCase(w, first+j, Circle, s.Alpha(l))
-	}
 	ca, ra, ok := e.alphaCircle(s)
-	if !ok || ra == 0 {
-		return
+	const n = 72
+	if !ok || ra == 0 || len(e.circle) <= n {
+		for j, l := range e.circle {
+			e.txCase(w, first+j, Circle, s.Alpha(l))
+		}
+		if !ok || ra == 0 {
+			return
+		}
 	}
 	at := func(phi float64) complex128 { return ca + complex(ra*math.Cos(phi), ra*math.Sin(phi)) }
 	gam := func(phi float64) float64 {
@@ -118,7 +121,6 @@ func (e *Engine) txCircle(w *workspace, first int) {
 		scale, _ := e.drive(w, a)
 		return e.txAt(s, a, scale).Gamma
 	}
-	const n = 72
 	best, bj := -1.0, 0
 	for j := 0; j < n; j++ {
 		if g := gam(2 * math.Pi * float64(j) / n); g > best {
@@ -130,7 +132,18 @@ func (e *Engine) txCircle(w *workspace, first int) {
 	a := at(phi)
 	scale, _ := e.drive(w, a)
 	v := e.txAt(s, a, scale)
-	v.Case = first + e.phaseOfAlpha(s, a)
+	j := e.phaseOfAlpha(s, a)
+	v.Case = first + j
+	if m := len(e.circle); m > n {
+		// a fine circle: |Γ| has one crest, so no sampled phase beats the
+		// continuous worst; the phases beside it are recorded (they can
+		// only tie) instead of a scan of every phase, which would cost
+		// what the rest of the audit does not: per phase, not per crest
+		for d := -1; d <= 1; d++ {
+			jj := ((j+d)%m + m) % m
+			e.txCase(w, first+jj, Circle, s.Alpha(e.circle[jj]))
+		}
+	}
 	w.keepTx(v, Circle)
 }
 
