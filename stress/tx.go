@@ -156,7 +156,7 @@ func goldenMax(f func(float64) float64, a, b float64) (float64, float64) {
 	}
 	c, d := b-invPhi*(b-a), a+invPhi*(b-a)
 	fc, fd := f(c), f(d)
-	for i := 0; i < 60 && b-a > 1e-12; i++ {
+	for i := 0; i < 60 && b-a > 1e-8; i++ { // 1e-8 rad: the crest is flat to 1e-16 there
 		if fc >= fd {
 			b, d, fd = d, c, fc
 			c = b - invPhi*(b-a)
