@@ -279,12 +279,14 @@ func ladderSource(parts int) string {
 func benchLadderAudit(b *testing.B, parts int) {
 	fx := build(b, ladderSource(parts), benchDefault...)
 	b.ReportAllocs()
+	cpu0 := cpuTime()
 	for b.Loop() {
 		if _, err := fx.eng.Audit(); err != nil {
 			b.Fatal(err)
 		}
 	}
 	b.ReportMetric(float64(parts), "parts")
+	b.ReportMetric((cpuTime()-cpu0).Seconds()*1e3/float64(b.N), "cpu-ms/op")
 }
 
 func BenchmarkLadderAudit100(b *testing.B)  { benchLadderAudit(b, 100) }
