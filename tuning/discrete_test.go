@@ -97,9 +97,13 @@ capacitor C2 n2 n3 250p dielectric=air range=25p:400p
 	if err != nil {
 		b.Fatal(err)
 	}
+	solves := 0
 	for i := 0; i < b.N; i++ {
-		if _, err := m.Tune(3.65e6, complex(13, -490)); err != nil {
+		r, err := m.Tune(3.65e6, complex(13, -490))
+		if err != nil {
 			b.Fatal(err)
 		}
+		solves += r.Solves
 	}
+	b.ReportMetric(float64(solves)/float64(b.N), "solves/op")
 }

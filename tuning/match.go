@@ -199,6 +199,7 @@ type Result struct {
 	Policy  Policy // which policy chose
 	Limit   string // unmatched: what stopped the match
 	Family  int    // number of distinct matching settings the search found
+	Solves  int    // network solves the search took
 }
 
 // family is how close to the best match a setting must come for a policy
@@ -243,7 +244,7 @@ func (m *Matcher) Tune(f float64, z complex128) (Result, error) {
 		}
 	}
 	if best.SWR > m.TargetSWR*(1+1e-9) {
-		res.Best = best
+		res.Best, res.Solves = best, t.evals
 		res.Limit = m.limitText(best.Values)
 		return res, nil
 	}
@@ -264,8 +265,8 @@ func (m *Matcher) Tune(f float64, z complex128) (Result, error) {
 	if len(m.cont) > 0 && best.Gamma < 1e-6 {
 		// refine from the few best matches by the policy's measure
 		sort.SliceStable(fam, func(i, j int) bool { return m.better(fam[i], fam[j]) })
-		if len(fam) > 2 {
-			fam = fam[:2]
+		if len(fam) > 1 {
+			fam = fam[:1]
 		}
 		for _, c := range fam {
 			if e, ok := t.stage2(c, gc); ok && m.better(e, chosen) {
@@ -273,7 +274,7 @@ func (m *Matcher) Tune(f float64, z complex128) (Result, error) {
 			}
 		}
 	}
-	res.Best, res.Family = chosen, len(fam)
+	res.Best, res.Family, res.Solves = chosen, len(fam), t.evals
 	return res, nil
 }
 
@@ -390,28 +391,32 @@ func halton(i, b int) float64 {
 // stage1 minimises |Γ|² from several starts; with only discrete parts it
 // evaluates the one setting.
 func (t *tuner) stage1(dv []float64, few bool) ([]Eval, error) {
-	m, f, z := t.m, t.f, t.z
+	m := t.m
 	if len(m.cont) == 0 {
-		e, err := m.Evaluate(f, z, m.values(nil, dv))
+		e, err := t.eval(m.values(nil, dv))
 		if err != nil {
 			return nil, nil
 		}
 		return []Eval{e}, nil
 	}
 	var out []Eval
+	matched := 0
 	fn := func(u []float64) float64 {
 		g := t.gamma(m.values(u, dv))
 		return real(g)*real(g) + imag(g)*imag(g)
 	}
 	for _, u0 := range m.starts(few) {
 		u, _ := minimize(fn, u0, 1e-20)
-		e, err := m.Evaluate(f, z, m.values(u, dv))
+		e, err := t.eval(m.values(u, dv))
 		if err != nil {
 			continue
 		}
 		out = append(out, e)
-		if len(out) >= 1 && e.Gamma < 1e-8 && m.Policy == LeastLoss && len(m.cont) <= 2 {
-			// with two continuous parts the match is a point, not a family
+		if e.Gamma < 1e-8 {
+			matched++
+		}
+		if len(m.cont) >= 3 && matched >= 3 {
+			// a family of matches: stage 2 follows it from here
 			break
 		}
 	}
@@ -481,7 +486,7 @@ func (t *tuner) walk(from Eval, gc float64, pi, pj int) (Eval, bool) {
 	if len(free) == 1 {
 		// scan the free part over its range, continuing the pair's solution
 		// from one point to the next, and refine from the best point found
-		const n = 32
+		const n = 20
 		bu, bm := u0[0], fn(u0)
 		for dir := -1; dir <= 1; dir += 2 {
 			seed = append(seed[:0], from.Values...)
@@ -504,7 +509,7 @@ func (t *tuner) walk(from Eval, gc float64, pi, pj int) (Eval, bool) {
 		u0[0] = bu
 		seed = append(seed[:0], best.Values...)
 	}
-	minimizeN(fn, u0, math.Inf(-1), 150*len(free))
+	minimizeN(fn, u0, math.Inf(-1), 60*len(free))
 	return best, found
 }
 
@@ -554,6 +559,8 @@ type tuner struct {
 	load circuits.Load
 	fz   *circuits.Factorization
 	x    []complex128
+	// evals counts network solves, the cost of a tuning
+	evals int
 }
 
 func (m *Matcher) newTuner(f float64, z complex128) (*tuner, error) {
@@ -566,9 +573,16 @@ func (m *Matcher) newTuner(f float64, z complex128) (*tuner, error) {
 	return t, nil
 }
 
+// eval is Matcher.Evaluate, counted.
+func (t *tuner) eval(v []float64) (Eval, error) {
+	t.evals++
+	return t.m.Evaluate(t.f, t.z, v)
+}
+
 // gamma is the power-wave reflection at the transmitter (complex) at
 // setting v; 1 when the network cannot be solved there.
 func (t *tuner) gamma(v []float64) complex128 {
+	t.evals++
 	for k, p := range t.m.Vars {
 		t.c.Elements[p.Index].Value = v[k]
 	}
@@ -594,7 +608,7 @@ func (t *tuner) gamma(v []float64) complex128 {
 // log values, staying within their ranges); it reports whether the result
 // matches within gc.
 func (t *tuner) solvePair(v []float64, pi, pj int, gc float64) (Eval, bool) {
-	m, f, z := t.m, t.f, t.z
+	m := t.m
 	ai, aj := m.Vars[pi].Adj, m.Vars[pj].Adj
 	g := t.gamma(v)
 	for it := 0; it < 30 && cmplx.Abs(g) > 1e-11; it++ {
@@ -632,7 +646,7 @@ func (t *tuner) solvePair(v []float64, pi, pj int, gc float64) (Eval, bool) {
 			break
 		}
 	}
-	e, err := m.Evaluate(f, z, v)
+	e, err := t.eval(v)
 	if err != nil {
 		return Eval{Gamma: 1}, false
 	}
