@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/json"
 	"math"
+	"os"
 	"os/exec"
 	"path/filepath"
 	"strings"
@@ -151,6 +152,47 @@ func TestAuditRetunePDF(t *testing.T) {
 	for _, want := range []string{"Tuning chart:", "Settings per load", "unmatchable: 1", "least-loss", "L1 at its"} {
 		if !strings.Contains(s, want) {
 			t.Errorf("PDF text lacks %q", want)
+		}
+	}
+}
+
+// A netlist whose antenna port carries measured data is retuned, without
+// --loads, at each band carrier for the measured impedance there.
+func TestAuditRetuneMeasuredAntenna(t *testing.T) {
+	dir := t.TempDir()
+	s1p, err := os.ReadFile("../../testdata/station/vertical-80m.s1p")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(dir, "ant.s1p"), s1p, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	net := filepath.Join(dir, "t.net")
+	src := `port in n1 z=50
+port out n3 z=13-j490 measured=ant.s1p
+capacitor C1 n1 n2 40p range=10p:60p dielectric=air vpk=3000
+inductor  L1 n2 gnd 18u range=0.5u:25u q=200
+capacitor C2 n2 n3 250p range=25p:400p dielectric=air vpk=1500
+audit power=100 band=3.5M:3.8M points=4 harmonics=none
+`
+	if err := os.WriteFile(net, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, out, errs := runCLI(t, "audit", net, "--retune", "--allow-unrated")
+	if code == 2 {
+		t.Fatalf("exit 2: %s", errs)
+	}
+	// the file's measured points at 3.5, 3.6, 3.7 and 3.8 MHz (vertical-80m.s1p)
+	if !strings.Contains(out, "port out's measured impedance") {
+		t.Errorf("output does not name the measured load set:\n%s", out)
+	}
+	for _, want := range [][2]string{{"3.5 MHz", "12.62-j513.1 Ω"}, {"3.8 MHz", "13.42-j462.4 Ω"}} {
+		found := false
+		for _, line := range strings.Split(out, "\n") {
+			found = found || (strings.Contains(line, want[0]) && strings.Contains(line, want[1]))
+		}
+		if !found {
+			t.Errorf("no row for %s with load %s:\n%s", want[0], want[1], out)
 		}
 	}
 }
