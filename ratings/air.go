@@ -108,9 +108,17 @@ const pdJoin = 3.0
 //
 // Both are functions of p·d alone, as Paschen's law says. Of the two the
 // lower is taken near the join, so the curve never overstates either.
+//
+// Left of the Paschen minimum (gaps of a few micrometres at sea level)
+// Townsend's form rises to an asymptote, but real micro-gaps break down by
+// field emission at or below the minimum, so the curve is held at its
+// minimum there: never above what such a gap stands.
 func AirUniformBreakdown(pd float64) float64 {
 	if !(pd > 0) {
 		return math.NaN()
+	}
+	if pdMin, vMin := PaschenMinimum(); pd < pdMin {
+		return vMin
 	}
 	vt := PaschenTownsend(pd)
 	if pd < pdJoin {

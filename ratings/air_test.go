@@ -109,11 +109,17 @@ func TestPaschenAir(t *testing.T) {
 	// safe side); p·d within a factor 1.6 (the constant-A, B fit puts the
 	// minimum at B·pd = V, i.e. 365 V per Torr·cm, against the measured
 	// 327/0.57 = 574).
-	var minV, minPd = math.Inf(1), 0.0
+	var minV, minPd, curveMin = math.Inf(1), 0.0, math.Inf(1)
 	for pd := 0.2; pd < 20; pd *= 1.001 {
-		if v := AirUniformBreakdown(pd); v < minV {
+		if v := PaschenTownsend(pd); v < minV {
 			minV, minPd = v, pd
 		}
+		curveMin = math.Min(curveMin, AirUniformBreakdown(pd))
+	}
+	// the curve used (held at the minimum to its left) has the same
+	// minimum; the scan samples it 0.1 % apart in p·d: 1e-5
+	if math.Abs(curveMin-minV) > 1e-5*minV {
+		t.Errorf("curve minimum %.3f V, Townsend minimum %.3f V", curveMin, minV)
 	}
 	if minV < 327*0.9 || minV > 327 {
 		t.Errorf("Paschen minimum %.0f V, want within 10 %% below 327 V", minV)
@@ -175,5 +181,24 @@ func TestClearanceMediaOrder(t *testing.T) {
 	// RF and at edges (common practice): within 2 to 3 kV
 	if v := ArcVoltage(1e-3, SeaLevel); v < 2e3 || v > 3e3 {
 		t.Errorf("1 mm air gap at RF arcs at %.0f V, want 2–3 kV", v)
+	}
+}
+
+// TestMicroGapsHeldAtTheMinimum: left of the Paschen minimum the curve is
+// held at the minimum (field emission breaks real micro-gaps at or below
+// it), so even a gap of a micrometre has a finite, positive limit and
+// the gap needed for any voltage is found.
+func TestMicroGapsHeldAtTheMinimum(t *testing.T) {
+	_, vm := PaschenMinimum()
+	for _, d := range []float64{1e-9, 1e-6, 5e-6} {
+		if v := AirUniformBreakdown(SeaLevel.PdTorrCm(d)); v != vm {
+			t.Errorf("%g m: %g V, want the minimum %g V", d, v, vm)
+		}
+		if v := ArcVoltage(d, SeaLevel); !(v > 0) || math.IsInf(v, 0) {
+			t.Errorf("%g m arcs at %g V", d, v)
+		}
+	}
+	if g := GapFor(MediumAir, 10, 0.7, SeaLevel); !(g > 0) || math.IsInf(g, 0) {
+		t.Errorf("gap for 10 V: %g m", g)
 	}
 }
