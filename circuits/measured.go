@@ -82,7 +82,7 @@ func LoadMeasured(n *Netlist, read func(path string) ([]byte, error)) error {
 	for _, r := range n.MeasuredRefs() {
 		src, err := read(r.Path)
 		if err != nil {
-			errs = append(errs, &Error{Pos: r.Attr.ValPos, Msg: fmt.Sprintf("cannot read measured data %s: %v", clip(r.Attr.Raw), err), Want: "a readable Touchstone file, relative to the netlist"})
+			errs = append(errs, &Error{Pos: r.Attr.ValPos, Msg: fmt.Sprintf("cannot read measured data %s: %v", Clip(r.Attr.Raw), err), Want: "a readable Touchstone file, relative to the netlist"})
 			continue
 		}
 		ts, err := ParseTouchstone(r.Path, src)
@@ -95,7 +95,7 @@ func LoadMeasured(n *Netlist, read func(path string) ([]byte, error)) error {
 			continue
 		}
 		if ts.Ports != r.Ports {
-			errs = append(errs, &Error{Pos: r.Attr.ValPos, Msg: fmt.Sprintf("%s holds %d-port data; %s needs %d-port data", clip(r.Attr.Raw), ts.Ports, r.Owner, r.Ports),
+			errs = append(errs, &Error{Pos: r.Attr.ValPos, Msg: fmt.Sprintf("%s holds %d-port data; %s needs %d-port data", Clip(r.Attr.Raw), ts.Ports, r.Owner, r.Ports),
 				Want: map[int]string{1: "a one-port file (.s1p)", 2: "a two-port file (.s2p)"}[r.Ports]})
 			continue
 		}
@@ -126,7 +126,7 @@ func (n *Netlist) measuredFor(attrs Attrs) (*measuredData, error) {
 	}
 	ts := n.measured[a]
 	if ts == nil {
-		return nil, &Error{Pos: a.ValPos, Msg: "measured data " + clip(a.Raw) + " were not loaded", Want: "run through the rfstress command, which reads them"}
+		return nil, &Error{Pos: a.ValPos, Msg: "measured data " + Clip(a.Raw) + " were not loaded", Want: "run through the rfstress command, which reads them"}
 	}
 	hold := false
 	if w, ok := attrs.Word("outside"); ok && w == "hold" {
@@ -144,7 +144,7 @@ func (m *measuredData) check(f float64, owner string) error {
 	// a part-per-billion allowance: band edges written with other digits
 	if f < lo*(1-1e-9) || f > hi*(1+1e-9) {
 		return &Error{Pos: m.pos,
-			Msg:  fmt.Sprintf("%s: %s is measured from %s to %s, and %s is needed", owner, clip(m.raw), FormatHz(lo), FormatHz(hi), FormatHz(f)),
+			Msg:  fmt.Sprintf("%s: %s is measured from %s to %s, and %s is needed", owner, Clip(m.raw), FormatHz(lo), FormatHz(hi), FormatHz(f)),
 			Want: "measure over every carrier and audited harmonic, lower --harmonic-max, or add outside=hold to keep the end value"}
 	}
 	return nil
@@ -158,8 +158,9 @@ func (e *Element) measuredZ(f float64) (complex128, bool) {
 	return e.meas.ts.ZAt(f), true
 }
 
-// CheckFrequency reports the first measurement of c that does not cover f.
-// Every factorisation asks, so no solve silently extrapolates.
+// CheckFrequency reports the first measured part of c that does not cover
+// f. Every factorisation asks, so no solve silently extrapolates. (The
+// antenna is not part of a factorisation: AntennaAt says what it is.)
 func (c *Circuit) CheckFrequency(f float64) error {
 	for i := range c.Elements {
 		e := &c.Elements[i]
@@ -167,7 +168,7 @@ func (c *Circuit) CheckFrequency(f float64) error {
 			return err
 		}
 	}
-	return c.outMeas.check(f, "port out")
+	return nil
 }
 
 // AntennaZ is the antenna port's load at f: the measured impedance when
@@ -177,6 +178,21 @@ func (c *Circuit) AntennaZ(f float64) complex128 {
 		return c.outMeas.ts.ZAt(f)
 	}
 	return c.Zout
+}
+
+// AntennaAt is the antenna load at f for the audit: the measured
+// impedance where the sweep reaches (or outside=hold keeps its end), with
+// measured true; else the port's z. err names the span when a measured
+// antenna does not reach f; callers auditing a carrier must refuse then,
+// callers at a harmonic take z (docs/measured.md).
+func (c *Circuit) AntennaAt(f float64) (z complex128, measured bool, err error) {
+	if c.outMeas == nil {
+		return c.Zout, false, nil
+	}
+	if err := c.outMeas.check(f, "port out"); err != nil {
+		return c.Zout, false, err
+	}
+	return c.outMeas.ts.ZAt(f), true, nil
 }
 
 // HasMeasuredAntenna says whether the antenna load varies with frequency.

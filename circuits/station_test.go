@@ -168,6 +168,9 @@ func loadStation(t *testing.T, file string) ([]byte, *Netlist, *Circuit) {
 	if err != nil {
 		t.Fatalf("parse: %v", err)
 	}
+	if err := LoadMeasured(nl, os.ReadFile); err != nil {
+		t.Fatalf("measured data: %v", err)
+	}
 	c, err := Build(nl)
 	if err != nil {
 		t.Fatalf("build: %v", err)

@@ -144,7 +144,7 @@ func ParseTouchstone(file string, src []byte) (*Touchstone, error) {
 				for _, t := range rest {
 					v, err := tsFloat(t.Text)
 					if err != nil || v <= 0 {
-						r.errorf(ln, t.Col, "a positive resistance in Ω", "bad reference %q", clip(t.Text))
+						r.errorf(ln, t.Col, "a positive resistance in Ω", "bad reference %q", Clip(t.Text))
 						return nil, r.errs
 					}
 					refs = append(refs, v)
@@ -156,7 +156,7 @@ func ParseTouchstone(file string, src []byte) (*Touchstone, error) {
 				}
 				matrix = strings.ToLower(rest[0].Text)
 				if matrix != "full" && matrix != "lower" && matrix != "upper" {
-					r.errorf(ln, rest[0].Col, "Full, Lower or Upper", "bad [Matrix Format] %q", clip(rest[0].Text))
+					r.errorf(ln, rest[0].Col, "Full, Lower or Upper", "bad [Matrix Format] %q", Clip(rest[0].Text))
 					return nil, r.errs
 				}
 			case "[network data]":
@@ -180,7 +180,7 @@ func ParseTouchstone(file string, src []byte) (*Touchstone, error) {
 					return nil, r.errs
 				}
 			default:
-				r.errorf(ln, fs[0].Col, "a Touchstone 2.0 keyword", "unknown keyword %s", clip(fs[0].Text))
+				r.errorf(ln, fs[0].Col, "a Touchstone 2.0 keyword", "unknown keyword %s", Clip(fs[0].Text))
 				return nil, r.errs
 			}
 			continue
@@ -224,14 +224,14 @@ func ParseTouchstone(file string, src []byte) (*Touchstone, error) {
 					}
 					v, err := tsFloat(opts[k+1].Text)
 					if err != nil || v <= 0 {
-						r.errorf(ln, opts[k+1].Col, "a positive resistance, e.g. R 50", "bad reference resistance %q", clip(opts[k+1].Text))
+						r.errorf(ln, opts[k+1].Col, "a positive resistance, e.g. R 50", "bad reference resistance %q", Clip(opts[k+1].Text))
 						return nil, r.errs
 					}
 					ref = v
 					k++
 				case "":
 				default:
-					r.errorf(ln, t.Col, "Hz|kHz|MHz|GHz, S|Y|Z, RI|MA|DB, R value", "unknown option %q", clip(t.Text))
+					r.errorf(ln, t.Col, "Hz|kHz|MHz|GHz, S|Y|Z, RI|MA|DB, R value", "unknown option %q", Clip(t.Text))
 					return nil, r.errs
 				}
 			}
@@ -361,18 +361,18 @@ func ParseTouchstone(file string, src []byte) (*Touchstone, error) {
 		for k, t := range g {
 			v, err := tsFloat(t.Text)
 			if err != nil {
-				r.errorf(t.line, t.Col, "a number", "bad number %q", clip(t.Text))
+				r.errorf(t.line, t.Col, "a number", "bad number %q", Clip(t.Text))
 				return nil, r.errs
 			}
 			nums[k] = v
 		}
 		f := nums[0] * unit
 		if f <= 0 {
-			r.errorf(g[0].line, g[0].Col, "a frequency above zero", "frequency %s is not above zero", clip(g[0].Text))
+			r.errorf(g[0].line, g[0].Col, "a frequency above zero", "frequency %s is not above zero", Clip(g[0].Text))
 			return nil, r.errs
 		}
 		if n := len(ts.F); n > 0 && f <= ts.F[n-1] {
-			r.errorf(g[0].line, g[0].Col, "frequencies strictly rising", "frequency %s does not rise above the one before", clip(g[0].Text))
+			r.errorf(g[0].line, g[0].Col, "frequencies strictly rising", "frequency %s does not rise above the one before", Clip(g[0].Text))
 			return nil, r.errs
 		}
 		vals := make([]complex128, per)
@@ -448,14 +448,6 @@ func tsFloat(s string) (float64, error) {
 		return 0, fmt.Errorf("not finite")
 	}
 	return v, nil
-}
-
-// clip shortens echoed text for messages.
-func clip(s string) string {
-	if utf8.RuneCountInString(s) > 60 {
-		return string([]rune(s)[:60]) + "…"
-	}
-	return s
 }
 
 // toS converts a one- or two-port matrix to S referred to refs. Version 1

@@ -139,6 +139,21 @@ func peakText(p *stress.PartResult) string {
 	return ""
 }
 
+// SectionConditions is ConditionsText for a section, naming a measured
+// antenna where the section has one.
+func SectionConditions(s *stress.Section) []string {
+	lines := ConditionsText(s.Conditions)
+	if s.AntennaMeasured == "" {
+		return lines
+	}
+	for i, l := range lines {
+		if rest, ok := strings.CutPrefix(l, "antenna port matched"); ok {
+			lines[i] = "antenna port: the measured antenna (" + circuits.Escape(s.AntennaMeasured) + ") at each carrier" + rest
+		}
+	}
+	return lines
+}
+
 // ConditionsText summarises the conditions of a section in lines.
 func ConditionsText(c stress.Conditions) []string {
 	si := circuits.FormatSI
@@ -280,7 +295,7 @@ var shown = []ratings.Quantity{ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings
 func writeSectionText(w io.Writer, s *stress.Section, width int) {
 	fmt.Fprintln(w)
 	wrapLine(w, width, "== ", "   ", heading(s.File, s.Title))
-	for _, l := range ConditionsText(s.Conditions) {
+	for _, l := range SectionConditions(s) {
 		wrapLine(w, width, "   ", "     ", l)
 	}
 	fmt.Fprintf(w, "   %d cases\n\n", s.NumCases)

@@ -132,6 +132,7 @@ type JSONSection struct {
 	File          string       `json:"file"`
 	Title         string       `json:"title"`
 	SHA256        string       `json:"sha256"`
+	AntennaData   string       `json:"antenna_measured,omitempty"`
 	Verdict       string       `json:"verdict"`
 	SafePowerW    *float64     `json:"safe_power_w"`
 	Limiting      JSONLimiting `json:"limiting"`
@@ -192,7 +193,7 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 			doc.PowerW, doc.Mode, doc.AvgRatio = s.Conditions.PowerW, s.Conditions.Mode, s.Conditions.AvgRatio
 		}
 		doc.Cases += s.NumCases
-		js := JSONSection{File: s.File, Title: s.Title, SHA256: s.SHA256, Verdict: s.Verdict.String(),
+		js := JSONSection{File: s.File, Title: s.Title, SHA256: s.SHA256, AntennaData: s.AntennaMeasured, Verdict: s.Verdict.String(),
 			SafePowerW: jsonNum(s.SafeW), Limiting: JSONLimiting{Component: s.LimitPart, Quantity: string(s.LimitQ)},
 			Cases: s.NumCases, PowerW: s.Conditions.PowerW, Mode: s.Conditions.Mode, AvgRatio: s.Conditions.AvgRatio,
 			Drive: s.Conditions.Drive, Derate: s.Conditions.Derate, AmbientC: s.Conditions.Ambient,

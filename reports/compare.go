@@ -46,7 +46,7 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 	for i, r := range v.Ref {
 		refs[i] = circuits.FormatSI(r, "Ω")
 	}
-	fmt.Fprintf(w, "  measured: %s, %d points, %s to %s, reference %s\n", Escape(v.Measured), v.Points,
+	fmt.Fprintf(w, "  measured: %s, %d points, %s to %s, reference %s\n", circuits.Escape(v.Measured), v.Points,
 		circuits.FormatHz(c.Lo), circuits.FormatHz(c.Hi), strings.Join(refs, " / "))
 	if len(c.Skipped) > 0 {
 		fmt.Fprintf(w, "  %d harmonic frequencies lie outside the measurement and are not compared\n", len(c.Skipped))
@@ -83,7 +83,7 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 		fmt.Fprintf(w, "  RMS residual of S: %s before, %s after\n", num(f.RMSBefore, 4), num(f.RMSAfter, 4))
 	}
 	if v.Calibrated != "" {
-		fmt.Fprintf(w, "  calibrated netlist written to %s; audit it like any netlist\n", Escape(v.Calibrated))
+		fmt.Fprintf(w, "  calibrated netlist written to %s; audit it like any netlist\n", circuits.Escape(v.Calibrated))
 	}
 	return nil
 }

@@ -71,6 +71,12 @@ func demoDoc(t *testing.T, srcs []netSrc, trials int) *ReportDoc {
 		if err != nil {
 			t.Fatalf("%s: %v", ns.name, err)
 		}
+		// the station's measured files sit beside its netlists
+		if err := circuits.LoadMeasured(nl, func(p string) ([]byte, error) {
+			return os.ReadFile(filepath.Join("..", "testdata", "station", filepath.Base(p)))
+		}); err != nil {
+			t.Fatalf("%s: %v", ns.name, err)
+		}
 		c, err := circuits.Build(nl)
 		if err != nil {
 			t.Fatalf("%s: %v", ns.name, err)

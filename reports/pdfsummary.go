@@ -231,7 +231,7 @@ func (p *pdfw) conditions() {
 	}
 	per := make([][]string, len(secs))
 	for i, s := range secs {
-		per[i] = ConditionsText(s.Conditions)
+		per[i] = SectionConditions(s)
 	}
 	var common []string
 	for _, l := range per[0] {

@@ -471,7 +471,7 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	title := heading(s.File, s.Title)
 	p.newPage(title)
 	p.text(colMuted)
-	for _, l := range ConditionsText(s.Conditions) {
+	for _, l := range SectionConditions(s) {
 		p.para(8.5, l)
 	}
 	p.para(8.5, fmt.Sprintf("%d cases audited; highest node voltage %s peak at node %s (%s)",

@@ -144,6 +144,7 @@ type Engine struct {
 	block        []bool         // judged as a two-port by its ports (stress/block.go)
 	esl          []bool         // capacitors with series inductance: the dielectric sees I/(ωC)
 	selfC        []bool         // inductors with self-capacitance: winding and terminal currents differ
+	centre       []complex128   // per carrier: the antenna load, the SWR circle's centre
 	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
 	listed       []Case         // retuned audits: the cases of every load, listed (retune.go)
 	limBuf       []ratings.Limit
@@ -151,6 +152,12 @@ type Engine struct {
 
 // NewEngine prepares the case layout for c under cond.
 func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, error) {
+	return newEngine(c, rs, cond, false)
+}
+
+// newEngine is NewEngine; offBand makes every carrier an off-band one (a
+// wrong filter selected), as BandUse audits carrier-also frequencies.
+func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bool) (*Engine, error) {
 	if err := cond.Check(); err != nil {
 		return nil, err
 	}
@@ -162,6 +169,9 @@ func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, 
 	}
 	band := cond.Carriers()
 	e.nBand = len(band) - len(cond.CarrierAlso)
+	if offBand {
+		e.nBand = 0
+	}
 	e.carriers = band
 	for _, fl := range cond.Faults {
 		if fl == "open" {
@@ -171,6 +181,15 @@ func NewEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions) (*Engine, 
 		}
 	}
 	e.perCarrier = 1 + len(e.circle) + len(cond.Loads) + len(e.faults)
+	for fi, f := range e.carriers {
+		z, _, err := c.AntennaAt(f)
+		if err != nil && fi < e.nBand {
+			return nil, err
+		}
+		// an off-band carrier (a wrong filter selected) the sweep does not
+		// reach meets the port's z, as the harmonics do (docs/measured.md)
+		e.centre = append(e.centre, z)
+	}
 	for i := range c.Elements {
 		e.block = append(e.block, isBlock(c, i))
 		e.esl = append(e.esl, c.Elements[i].Kind == circuits.Capacitor && c.Elements[i].SeriesInductance() > 0)
@@ -219,9 +238,9 @@ func (e *Engine) Case(i int) Case {
 	c := Case{F: e.carriers[fi], OffBand: fi >= e.nBand}
 	switch {
 	case j == 0:
-		c.Kind, c.Load = Matched, circuits.Load{Z: e.C.Zout}
+		c.Kind, c.Load = Matched, circuits.Load{Z: e.centre[fi]}
 	case j <= len(e.circle):
-		c.Kind, c.Load, c.Theta = Circle, e.circle[j-1], 360*float64(j-1)/float64(len(e.circle))
+		c.Kind, c.Load, c.Theta = Circle, circuits.LoadOnCircle(e.centre[fi], e.Cond.SWR, e.phaseAngle(j-1)), 360*float64(j-1)/float64(len(e.circle))
 	case j <= len(e.circle)+len(e.Cond.Loads):
 		c.Kind, c.Load = Explicit, circuits.Load{Z: e.Cond.Loads[j-1-len(e.circle)]}
 	default:
@@ -323,6 +342,11 @@ type workspace struct {
 	extra  []Case
 	heat   ratings.Heat // the thermal state of the part evalPart last judged
 	tx     TxResult     // what the transmitter sees, worst over the run
+	// the antenna at the current carrier (the SWR circle's centre), its
+	// circle, and the antenna at each harmonic of that carrier
+	zc     complex128
+	circle []circuits.Load
+	hz     []complex128
 	// limits per part at the current carrier
 }
 
@@ -339,6 +363,7 @@ type partLimits struct {
 func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 	n := len(c.Elements)
 	w := &workspace{c: c, sw: circuits.NewSplitWork(c), carr: circuits.NewSplit(c),
+		circle: make([]circuits.Load, len(e.circle)), hz: make([]complex128, len(e.levels)),
 		lim: make([]partLimits, n), acc: make([]accum, n), hEMF: make([]float64, len(e.levels))}
 	for range e.levels {
 		w.harm = append(w.harm, circuits.NewSplit(c))
@@ -403,10 +428,11 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 			}
 		}
 		copy(w.lim, e.lims[fi])
+		e.setAntenna(w, fi, f)
 		e.harmonicSums(w)
 		base := fi * e.perCarrier
 		// matched, explicit loads and faults: one evaluation each
-		e.evalCase(w, base, Matched, circuits.Load{Z: c.Zout}, f, &nw)
+		e.evalCase(w, base, Matched, circuits.Load{Z: w.zc}, f, &nw)
 		for j, z := range e.Cond.Loads {
 			e.evalCase(w, base+1+len(e.circle)+j, Explicit, circuits.Load{Z: z}, f, &nw)
 		}
@@ -423,6 +449,26 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 		}
 	}
 	return nw, nil
+}
+
+// setAntenna points the workspace at carrier fi's antenna: the load the
+// matched case uses and the SWR circle is drawn round, and the antenna at
+// each harmonic (measured where the sweep reaches, else the port's z).
+func (e *Engine) setAntenna(w *workspace, fi int, f float64) {
+	w.zc = e.centre[fi]
+	for k := range w.circle {
+		if w.zc == e.C.Zout {
+			w.circle[k] = e.circle[k]
+		} else {
+			w.circle[k] = circuits.LoadOnCircle(w.zc, e.Cond.SWR, e.phaseAngle(k))
+		}
+	}
+	for h := range w.hz {
+		w.hz[h] = e.C.Zout
+		if z, measured, err := e.C.AntennaAt(float64(h+2) * f); err == nil && measured {
+			w.hz[h] = z
+		}
+	}
 }
 
 // drive returns the carrier EMF and the factor on the harmonic sources
@@ -594,7 +640,7 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) {
 	s := w.carr
 	scan := func() {
-		for j, l := range e.circle {
+		for j, l := range w.circle {
 			e.evalCase(w, first+j, Circle, l, f, nw)
 		}
 	}
@@ -602,7 +648,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		scan()
 		return
 	}
-	ca, ra, ok := e.alphaCircle(s)
+	ca, ra, ok := e.alphaCircle(s, w.zc)
 	if !ok {
 		scan()
 		return
@@ -625,7 +671,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 			if x[1] == 0 {
 				continue // the load does not reach this quantity; other cases hold it
 			}
-			a, th := exactWorst(w.carr, e.C.Zout, x[0], x[1], ca, ra)
+			a, th := exactWorst(w.carr, w.zc, x[0], x[1], ca, ra)
 			ci := e.circleIndex(w, first, th, disc)
 			e.evalPart(w, i, ci, Circle, hNormal, a, scale, k, f)
 			if ci >= e.NumCases() && w.acc[i].uses(ci) {
@@ -637,7 +683,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		if s.Node[1][ni] == 0 {
 			continue
 		}
-		a, th := exactWorst(w.carr, e.C.Zout, s.Node[0][ni], s.Node[1][ni], ca, ra)
+		a, th := exactWorst(w.carr, w.zc, s.Node[0][ni], s.Node[1][ni], ca, ra)
 		ci := e.circleIndex(w, first, th, disc)
 		e.evalNode(w, ni, ci, hNormal, a, scale, k, nw)
 		if ci >= e.NumCases() && (nw.at == ci || w.nodePkCase[ni] == ci) {
@@ -678,7 +724,7 @@ func (e *Engine) circleIndex(w *workspace, first int, th float64, disc bool) int
 // record keeps the exact worst load at angle th as a case of its own.
 func (e *Engine) record(w *workspace, first int, f, th float64) {
 	fi := (first - 1) / e.perCarrier
-	w.extra = append(w.extra, Case{F: f, Kind: Circle, Load: circuits.LoadOnCircle(e.C.Zout, e.Cond.SWR, th),
+	w.extra = append(w.extra, Case{F: f, Kind: Circle, Load: circuits.LoadOnCircle(w.zc, e.Cond.SWR, th),
 		Theta: th * 180 / math.Pi, OffBand: fi >= e.nBand, Exact: true})
 }
 
@@ -694,8 +740,7 @@ func (a *accum) uses(ci int) bool {
 
 // alphaCircle fits the circle traced by α over the SWR circle through three
 // of its points.
-func (e *Engine) alphaCircle(s *circuits.Split) (complex128, float64, bool) {
-	z0 := e.C.Zout
+func (e *Engine) alphaCircle(s *circuits.Split, z0 complex128) (complex128, float64, bool) {
 	var a [3]complex128
 	for k := 0; k < 3; k++ {
 		a[k] = s.Alpha(circuits.LoadOnCircle(z0, e.Cond.SWR, 2*math.Pi*float64(k)/3))
@@ -767,17 +812,18 @@ func (e *Engine) harmonicSums(w *workspace) {
 				a := s.Alpha(circuits.Short)
 				worst = func(x0, x1 complex128) float64 { return mag(x0 + a*x1) }
 			case len(e.circle) == 0:
-				a := s.Alpha(circuits.Load{Z: c.Zout})
+				a := s.Alpha(circuits.Load{Z: w.hz[h]})
 				worst = func(x0, x1 complex128) float64 { return mag(x0 + a*x1) }
 			default:
-				if ca, ra, ok := e.alphaCircle(s); ok {
+				if ca, ra, ok := e.alphaCircle(s, w.hz[h]); ok {
 					worst = func(x0, x1 complex128) float64 {
 						return mag(x0+ca*x1) + ra*mag(x1)
 					}
 				} else {
 					worst = func(x0, x1 complex128) float64 {
 						var m float64
-						for _, l := range e.circle {
+						for k := range e.circle {
+							l := circuits.LoadOnCircle(w.hz[h], e.Cond.SWR, e.phaseAngle(k))
 							if v := mag(x0 + s.Alpha(l)*x1); v > m {
 								m = v
 							}
@@ -792,7 +838,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 					continue
 				}
 				if e.block[i] {
-					e.blockHarmonic(s, w, i, cls, e.harmonicCircles(w, s, cls), eh)
+					e.blockHarmonic(s, w, i, cls, e.harmonicCircles(w, s, h, cls), eh)
 					continue
 				}
 				mv := worst(s.V[0][i], s.V[1][i]) * eh

@@ -28,10 +28,10 @@ func (e *Engine) BandUse(n int) (*BandUse, error) {
 		fs, off = append(fs, f), append(off, true)
 	}
 	u := &BandUse{F: fs, OffBand: off, Use: make([][]float64, len(e.C.Elements))}
-	for _, f := range fs {
+	for k, f := range fs {
 		one := c
 		one.BandLo, one.BandHi, one.Points, one.CarrierAlso = f, f, 1, nil
-		sub, err := NewEngine(e.C, e.R, one)
+		sub, err := newEngine(e.C, e.R, one, off[k])
 		if err != nil {
 			return nil, err
 		}

@@ -73,7 +73,7 @@ func (e *Engine) blockCircle(w *workspace, i, first int, ca complex128, ra, scal
 		for _, qi := range grp.qs {
 			h[qi] = has[qi]
 		}
-		e.keep(w, i, first+e.phaseOfAlpha(w.carr, grp.alpha), Circle, &q, &h)
+		e.keep(w, i, first+e.phaseOfAlpha(w, grp.alpha), Circle, &q, &h)
 	}
 }
 
@@ -102,21 +102,21 @@ type weightCircle struct {
 }
 
 // harmonicCircles is the weight set of harmonic class cls at split s.
-func (e *Engine) harmonicCircles(w *workspace, s *circuits.Split, cls int) []weightCircle {
+func (e *Engine) harmonicCircles(w *workspace, s *circuits.Split, h, cls int) []weightCircle {
 	switch {
 	case cls == hOpen:
 		return []weightCircle{{0, 0}}
 	case cls == hShort:
 		return []weightCircle{{s.Alpha(circuits.Short), 0}}
 	case len(e.circle) == 0:
-		return []weightCircle{{s.Alpha(circuits.Load{Z: w.c.Zout}), 0}}
+		return []weightCircle{{s.Alpha(circuits.Load{Z: w.hz[h]}), 0}}
 	}
-	if ca, ra, ok := e.alphaCircle(s); ok {
+	if ca, ra, ok := e.alphaCircle(s, w.hz[h]); ok {
 		return []weightCircle{{ca, ra}}
 	}
 	var cs []weightCircle
-	for _, ld := range e.circle {
-		cs = append(cs, weightCircle{s.Alpha(ld), 0})
+	for k := range e.circle {
+		cs = append(cs, weightCircle{s.Alpha(circuits.LoadOnCircle(w.hz[h], e.Cond.SWR, e.phaseAngle(k))), 0})
 	}
 	return cs
 }

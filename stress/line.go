@@ -88,7 +88,7 @@ func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca
 		for _, qi := range grp.qs {
 			h[qi] = has[qi]
 		}
-		e.keep(w, i, first+e.phaseOfAlpha(w.carr, grp.alpha), Circle, &q, &h)
+		e.keep(w, i, first+e.phaseOfAlpha(w, grp.alpha), Circle, &q, &h)
 	}
 }
 
@@ -107,13 +107,13 @@ func (e *Engine) lineHarmonic(w *workspace, l *circuits.LineSpec, s *circuits.Sp
 	case cls == hShort:
 		cs = []circ{{s.Alpha(circuits.Short), 0}}
 	case len(e.circle) == 0:
-		cs = []circ{{s.Alpha(circuits.Load{Z: w.c.Zout}), 0}}
+		cs = []circ{{s.Alpha(circuits.Load{Z: w.hz[h]}), 0}}
 	default:
-		if ca, ra, ok := e.alphaCircle(s); ok {
+		if ca, ra, ok := e.alphaCircle(s, w.hz[h]); ok {
 			cs = []circ{{ca, ra}}
 		} else {
-			for _, ld := range e.circle {
-				cs = append(cs, circ{s.Alpha(ld), 0})
+			for k := range e.circle {
+				cs = append(cs, circ{s.Alpha(circuits.LoadOnCircle(w.hz[h], e.Cond.SWR, e.phaseAngle(k))), 0})
 			}
 		}
 	}
@@ -177,12 +177,13 @@ func crestAlpha(x0, x1, c complex128, r float64) complex128 {
 
 // phaseOfAlpha is the sampled SWR-circle phase nearest the load that gives
 // weight α.
-func (e *Engine) phaseOfAlpha(s *circuits.Split, alpha complex128) int {
+func (e *Engine) phaseOfAlpha(w *workspace, alpha complex128) int {
+	s := w.carr
 	n := len(e.circle)
 	if alpha == 0 || n == 0 {
 		return 0
 	}
 	z := -s.Voc/alpha - s.Zth
-	th := circuits.ReflectionAngle(e.C.Zout, z)
+	th := circuits.ReflectionAngle(w.zc, z)
 	return int(math.Round(th/(2*math.Pi)*float64(n))) % n
 }

@@ -21,7 +21,7 @@ func (e *Engine) Audit() (*Section, error) {
 	}
 	acc := w.acc
 	nl := e.C.NL
-	s := &Section{File: nl.File, Title: nl.Title, SHA256: nl.SHA256(), Netlist: nl, Conditions: e.Cond,
+	s := &Section{File: nl.File, Title: nl.Title, SHA256: nl.SHA256(), Netlist: nl, Conditions: e.Cond, AntennaMeasured: antennaData(nl),
 		Engine: e, NumCases: e.NumCases(), Extra: w.extra, MaxNodeVpk: nw.vpk, MaxNodeCase: nw.at, SafeW: math.Inf(1),
 		Air: e.Air(), AirPressure: e.Air().Pressure()}
 	for ni, n := range e.C.Nodes {
@@ -353,22 +353,25 @@ type Upgrade struct {
 
 // Section is the audit of one netlist.
 type Section struct {
-	File        string
-	Title       string
-	SHA256      string
-	Netlist     *circuits.Netlist
-	Conditions  Conditions
-	Engine      *Engine
-	NumCases    int
-	Parts       []*PartResult
-	Verdict     ratings.Verdict
-	SafeW       float64
-	LimitPart   string
-	LimitQ      ratings.Quantity
-	MaxNodeVpk  float64 // largest node-to-ground peak voltage
-	MaxNodeAt   string  // node name
-	MaxNodeCase int
-	Findings    []ratings.Finding
+	File       string
+	Title      string
+	SHA256     string
+	Netlist    *circuits.Netlist
+	Conditions Conditions
+	Engine     *Engine
+	NumCases   int
+	Parts      []*PartResult
+	Verdict    ratings.Verdict
+	SafeW      float64
+	LimitPart  string
+	LimitQ     ratings.Quantity
+	// AntennaMeasured names the antenna's measured data as written
+	// (empty: the port's z is the antenna)
+	AntennaMeasured string
+	MaxNodeVpk      float64 // largest node-to-ground peak voltage
+	MaxNodeAt       string  // node name
+	MaxNodeCase     int
+	Findings        []ratings.Finding
 	// Harmonics is left empty by Audit: only the PDF shows it, and the
 	// caller that writes one fills it from Engine.HarmonicLines.
 	Harmonics []HarmonicLine
@@ -472,4 +475,15 @@ type HarmonicLine struct {
 	F        float64
 	LevelDBc float64 // the amplifier's level (−Inf when absent)
 	S21dB    float64 // matched insertion gain of the filter at that frequency
+}
+
+// antennaData is the antenna port's measured= file as written, if any.
+func antennaData(nl *circuits.Netlist) string {
+	if nl == nil || nl.Out == nil {
+		return ""
+	}
+	if a, ok := nl.Out.Attrs["measured"]; ok {
+		return a.Raw
+	}
+	return ""
 }

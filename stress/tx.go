@@ -105,10 +105,10 @@ func (e *Engine) txCase(w *workspace, ci int, kind CaseKind, alpha complex128) {
 // any sampled load.
 func (e *Engine) txCircle(w *workspace, first int) {
 	s := w.carr
-	ca, ra, ok := e.alphaCircle(s)
+	ca, ra, ok := e.alphaCircle(s, w.zc)
 	const n = 72
 	if !ok || ra == 0 || len(e.circle) <= n {
-		for j, l := range e.circle {
+		for j, l := range w.circle {
 			e.txCase(w, first+j, Circle, s.Alpha(l))
 		}
 		if !ok || ra == 0 {
@@ -132,7 +132,7 @@ func (e *Engine) txCircle(w *workspace, first int) {
 	a := at(phi)
 	scale, _ := e.drive(w, a)
 	v := e.txAt(s, a, scale)
-	j := e.phaseOfAlpha(s, a)
+	j := e.phaseOfAlpha(w, a)
 	v.Case = first + j
 	if m := len(e.circle); m > n {
 		// a fine circle: |Γ| has one crest, so no sampled phase beats the
@@ -141,7 +141,7 @@ func (e *Engine) txCircle(w *workspace, first int) {
 		// what the rest of the audit does not: per phase, not per crest
 		for d := -1; d <= 1; d++ {
 			jj := ((j+d)%m + m) % m
-			e.txCase(w, first+jj, Circle, s.Alpha(e.circle[jj]))
+			e.txCase(w, first+jj, Circle, s.Alpha(w.circle[jj]))
 		}
 	}
 	w.keepTx(v, Circle)

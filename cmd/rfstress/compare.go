@@ -114,7 +114,7 @@ func runCompare(args []string, stdout, stderr io.Writer) (int, error) {
 		v.Fit = fr
 		if *outPath != "" {
 			scales := map[string]float64{}
-			header := []string{fmt.Sprintf("calibrated by rfstress compare --fit %s against %s", *fit, reports.Escape(measPath))}
+			header := []string{fmt.Sprintf("calibrated by rfstress compare --fit %s against %s", *fit, circuits.Escape(measPath))}
 			for _, g := range fr.Groups {
 				for _, p := range g.Parts {
 					scales[p] = g.Scale
