@@ -3,6 +3,7 @@ package circuits
 import (
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
@@ -59,11 +60,23 @@ func FuzzParse(f *testing.F) {
 			if err.Error() == "" {
 				t.Fatal("empty error text")
 			}
+			// one error per line, every control character escaped
+			for _, e := range err.(ErrorList) {
+				if msg := e.Error(); strings.ContainsAny(msg, "\n\r\x1b\x00\u202e") {
+					t.Fatalf("raw control character in %q", msg)
+				}
+			}
 			return
 		}
+		checkAccepted(t, nl)
 		c, err := Build(nl)
 		if err != nil {
 			return
+		}
+		for _, freq := range []float64{1e6, 14.2e6} {
+			if _, ck, err := c.SolveChecked(freq, 100, Load{Z: c.Zout}); err == nil && ck.OK() && ck.Balance != ck.Balance {
+				t.Fatal("NaN balance passed the check")
+			}
 		}
 		for _, freq := range []float64{1e6, 14.2e6} {
 			for _, ld := range []Load{{Z: c.Zout}, Short, OpenLoad} {
@@ -81,4 +94,39 @@ func FuzzParse(f *testing.F) {
 			}
 		}
 	})
+}
+
+// checkAccepted asserts what a netlist that parses must never contain:
+// a node spelt like ground, a node only one part touches (ports count),
+// a value outside its accepted range, a coupling set that is not
+// positive definite.
+func checkAccepted(t *testing.T, nl *Netlist) {
+	t.Helper()
+	touch := map[string]int{}
+	for _, c := range nl.Components {
+		for _, n := range c.Terminals() {
+			if groundSpelling(n) {
+				t.Fatalf("%s uses node %q, spelt like ground", c.Name, n)
+			}
+			touch[n]++
+		}
+		if r, ok := valueRanges[c.Kind]; ok && c.Value != 0 && !r.Holds(c.Value) {
+			t.Fatalf("%s value %g outside %s", c.Name, c.Value, r.Text())
+		}
+	}
+	for _, p := range []*Port{nl.In, nl.Out} {
+		if p != nil {
+			touch[p.Node]++
+		}
+	}
+	for _, n := range nl.Nodes {
+		if touch[n] < 2 {
+			t.Fatalf("node %s touched %d times", n, touch[n])
+		}
+	}
+	if len(nl.Couplings) > 1 && !couplingsDefinite(nl.Couplings) {
+		// connected sets are checked one by one; the whole set of an
+		// accepted file is block diagonal in them, so it is definite too
+		t.Fatalf("accepted couplings are not positive definite")
+	}
 }
