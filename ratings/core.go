@@ -141,7 +141,7 @@ func buildCore(s *circuits.Core, mats map[string]*Material, usedBy string, errs 
 	if a, ok := s.Attrs["material"]; ok && len(a.Words) > 0 {
 		c.Material = lookupMaterial(mats, a.Words[0])
 		if c.Material == nil {
-			add(a.ValPos, "a built-in material ("+materialNames(mats)+") or a material statement", "core %s: unknown material %q", s.Name, a.Words[0])
+			add(a.ValPos, "a built-in material ("+materialNames(mats)+") or a material statement", "core %s: unknown material %s", s.Name, circuits.Quote(a.Words[0]))
 		}
 	}
 	if v := num("mu"); v > 0 {

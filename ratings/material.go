@@ -167,7 +167,7 @@ func materialFrom(s *circuits.Material, errs *circuits.ErrorList) *Material {
 	}
 	def := classByName(strings.ToLower(ca.Words[0]))
 	if def == nil {
-		add(ca.ValPos, "one of "+strings.Join(classNames, ", "), "unknown material class %q", ca.Words[0])
+		add(ca.ValPos, "one of "+strings.Join(classNames, ", "), "unknown material class %s", circuits.Quote(ca.Words[0]))
 		return nil
 	}
 	m := *def

@@ -167,8 +167,8 @@ func LoadProfile(nameOrPath string, readFile func(string) ([]byte, error)) (*Pro
 	}
 	src, err := readFile(nameOrPath)
 	if err != nil {
-		return nil, fmt.Errorf("derating profile %q is neither built in (%s) nor a readable file: %w",
-			nameOrPath, strings.Join(ProfileNames, ", "), err)
+		return nil, fmt.Errorf("derating profile %s is neither built in (%s) nor a readable file: %w",
+			circuits.Quote(nameOrPath), strings.Join(ProfileNames, ", "), err)
 	}
 	return parseProfile(nameOrPath, src)
 }
@@ -236,7 +236,7 @@ func parseProfile(path string, src []byte) (*Profile, error) {
 				} else if b, ok := builtinProfiles[v.Text]; ok {
 					base = b.clone()
 				} else {
-					add(at(ln, v.Col), "one of "+strings.Join(ProfileNames, ", "), "unknown base profile %q", v.Text)
+					add(at(ln, v.Col), "one of "+strings.Join(ProfileNames, ", "), "unknown base profile %s", circuits.Quote(v.Text))
 				}
 			case "temp-margin":
 				m, err := circuits.ParseValue(v.Text, "C")
@@ -252,7 +252,7 @@ func parseProfile(path string, src []byte) (*Profile, error) {
 		}
 		qs, isClass := classQuantities[key]
 		if !isClass {
-			add(at(ln, fs[0].Col), "name, base, temp-margin or a part class: "+strings.Join(Classes(), ", "), "unknown profile statement %q", key)
+			add(at(ln, fs[0].Col), "name, base, temp-margin or a part class: "+strings.Join(Classes(), ", "), "unknown profile statement %s", circuits.Quote(key))
 			continue
 		}
 		factorsBegun = true
@@ -266,7 +266,7 @@ func parseProfile(path string, src []byte) (*Profile, error) {
 		}
 		q := Quantity(fs[1].Text)
 		if !hasQuantity(qs, q) {
-			add(at(ln, fs[1].Col), "for "+key+": "+quantityList(qs), "quantity %q has no factor for %s", fs[1].Text, key)
+			add(at(ln, fs[1].Col), "for "+key+": "+quantityList(qs), "quantity %s has no factor for %s", circuits.Quote(fs[1].Text), key)
 			continue
 		}
 		f, err := circuits.ParseValue(fs[2].Text, "%")

@@ -38,7 +38,7 @@ func PolicyByName(s string) (Policy, error) {
 			return Policy(i), nil
 		}
 	}
-	return 0, fmt.Errorf("unknown tuning policy %q (least-loss, least-voltage or largest-c)", s)
+	return 0, fmt.Errorf("unknown tuning policy %s (least-loss, least-voltage or largest-c)", circuits.Quote(s))
 }
 
 // Describe says in words what the policy chose.

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"strings"
+	"time"
 
 	"rfstress/circuits"
 	"rfstress/reports"
@@ -44,11 +45,15 @@ func runCompare(args []string, stdout, stderr io.Writer) (int, error) {
 	}
 	file, measPath := fs.Arg(0), fs.Arg(1)
 	inputs := []string{file, measPath}
-	for _, o := range []string{*outPath, *jsonPath, *reportPath} {
-		if o != "" && o != "-" {
-			if err := checkNotInput(o, inputs); err != nil {
-				return exitUsage, err
-			}
+	// all outputs checked together, before any work: no two on one path
+	if _, err := planOutputs([][2]string{{"--out", *outPath}, {"--json", *jsonPath}, {"--report", *reportPath}}, inputs); err != nil {
+		return exitUsage, err
+	}
+	var date time.Time
+	if *reportPath != "" {
+		var err error
+		if date, err = reportDate(); err != nil {
+			return exitUsage, err
 		}
 	}
 	nl, c, err := loadNetlist(file)
@@ -129,10 +134,6 @@ func runCompare(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 	}
 	if *reportPath != "" {
-		date, err := reportDate()
-		if err != nil {
-			return exitUsage, err
-		}
 		if err := writeTo(*reportPath, stdout, inputs, func(w io.Writer) error {
 			return reports.WriteComparePDF(w, v, "rfstress "+Version, date)
 		}); err != nil {
@@ -156,11 +157,4 @@ func sortSettings(s []stress.Setting) {
 			s[j], s[j-1] = s[j-1], s[j]
 		}
 	}
-}
-
-// checkNotInput refuses an output path that names an input (symlinks and
-// hard links resolved) or that cannot be written.
-func checkNotInput(path string, inputs []string) error {
-	_, err := planOutputs([][2]string{{"output", path}}, inputs)
-	return err
 }

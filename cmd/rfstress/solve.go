@@ -68,7 +68,7 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 	if err != nil {
 		return exitUsage, err
 	}
-	targets, err := planOutputs([][2]string{{"--json", *jsonPath}}, []string{file})
+	targets, err := planOutputs([][2]string{{"--json", *jsonPath}}, netlistInputs(file, nl))
 	if err != nil {
 		return exitUsage, err
 	}
@@ -152,7 +152,7 @@ func runResponse(args []string, stdout, stderr io.Writer) (int, error) {
 	if err != nil {
 		return exitUsage, err
 	}
-	targets, err := planOutputs(outs, []string{file})
+	targets, err := planOutputs(outs, netlistInputs(file, nl))
 	if err != nil {
 		return exitUsage, err
 	}

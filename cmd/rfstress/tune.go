@@ -2,9 +2,9 @@ package main
 
 import (
 	"io"
-	"math"
 
 	"rfstress/reports"
+	"rfstress/stress"
 	"rfstress/tuning"
 )
 
@@ -70,8 +70,8 @@ func runTune(args []string, stdout, stderr io.Writer) (int, error) {
 	if err != nil {
 		return exitUsage, err
 	}
-	if !(*power > 0) || math.IsInf(*power, 0) {
-		return exitUsage, usagef("--power must be above zero watts")
+	if err := checkNumber("power", *power, stress.PowerRange); err != nil {
+		return exitUsage, err
 	}
 	if (len(*loads) == 0) == (*tf.loads == "") {
 		return exitUsage, usagef("tune needs either --load Z (repeatable) or --loads FILE|swr=S")
@@ -123,6 +123,11 @@ func runTune(args []string, stdout, stderr io.Writer) (int, error) {
 			return exitUsage, usageError{err}
 		}
 	}
+	// every output checked before the work and before any is written
+	targets, err := planOutputs([][2]string{{"--json", *jsonPath}, {"--csv", *csvPath}}, append(inputs, measuredFiles(nl)...))
+	if err != nil {
+		return exitUsage, err
+	}
 	m, err := tuning.NewMatcher(c, *tf.swr, policy)
 	if err != nil {
 		return exitUsage, usageError{err}
@@ -133,17 +138,15 @@ func runTune(args []string, stdout, stderr io.Writer) (int, error) {
 	}
 	v := reports.TuneChart(nl, m, ls, cases, res, *power)
 	wroteStdout := false
-	if *jsonPath != "" {
-		if err := writeTo(*jsonPath, stdout, inputs, func(w io.Writer) error { return reports.WriteTuneJSON(w, []*reports.TuneView{v}) }); err != nil {
+	for _, t := range targets {
+		fn := func(w io.Writer) error { return reports.WriteTuneJSON(w, []*reports.TuneView{v}) }
+		if t.flag == "--csv" {
+			fn = func(w io.Writer) error { return reports.WriteTuneCSV(w, v) }
+		}
+		if err := t.write(stdout, fn); err != nil {
 			return exitUsage, err
 		}
-		wroteStdout = *jsonPath == "-"
-	}
-	if *csvPath != "" {
-		if err := writeTo(*csvPath, stdout, inputs, func(w io.Writer) error { return reports.WriteTuneCSV(w, v) }); err != nil {
-			return exitUsage, err
-		}
-		wroteStdout = wroteStdout || *csvPath == "-"
+		wroteStdout = wroteStdout || t.path == "-"
 	}
 	if !wroteStdout {
 		if err := reports.WriteTuneText(stdout, v); err != nil {
