@@ -113,7 +113,7 @@ func readMeasured(path string) ([]byte, error) {
 	if len(b) > circuits.MaxMeasuredBytes {
 		return nil, fmt.Errorf("larger than %d MiB", circuits.MaxMeasuredBytes>>20)
 	}
-	return b, nil
+	return circuits.SkipBOM(b), nil
 }
 
 // writeTo checks one output against the inputs and writes through fn:

@@ -225,6 +225,15 @@ func TestStdoutWriteError(t *testing.T) {
 			t.Errorf("%v: exit %d, stderr %q; want 2 and %q", args, code, e.String(), want)
 		}
 	}
+	// the real device: every write fails with ENOSPC
+	if full, err := os.OpenFile("/dev/full", os.O_WRONLY, 0); err == nil {
+		defer full.Close()
+		var e bytes.Buffer
+		code := runChecked([]string{"audit", f}, full, &e)
+		if code != 2 || !strings.Contains(e.String(), "rfstress: cannot write standard output: write /dev/full: no space left on device") {
+			t.Errorf("to /dev/full: exit %d, %q", code, e.String())
+		}
+	}
 }
 
 // TestHostileText: control characters from file names and titles are
@@ -311,6 +320,16 @@ func TestPDFLongTitle(t *testing.T) {
 	ps, pl := pages(short), pages(long)
 	if ps == 0 || pl > ps+2 {
 		t.Errorf("pages: %d with a short title, %d with a 100 kB title", ps, pl)
+	}
+	// the escapes are visible in the PDF's text, the ESC itself absent
+	if _, err := exec.LookPath("pdftotext"); err == nil {
+		txt, err := exec.Command("pdftotext", filepath.Join(dir, "l.net.pdf"), "-").Output()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !strings.Contains(string(txt), `\x1bW\x1bW`) || strings.ContainsRune(string(txt), 0x1b) {
+			t.Errorf("PDF text does not show the escapes or holds a raw ESC")
+		}
 	}
 }
 
