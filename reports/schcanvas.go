@@ -250,10 +250,7 @@ func WriteSchematicSVG(w io.Writer, b *stress.Bank) error {
 	y, width := 2.0, 60.0
 	for _, s := range b.Sections {
 		sc := LayoutSchematic(s, measure)
-		title := s.File
-		if s.Title != "" {
-			title += " — " + s.Title
-		}
+		title := heading(s.File, s.Title) // escaped and shortened, as in every heading
 		fmt.Fprintf(&body, "<text x=\"2\" y=\"%s\" font-size=\"3.2\" font-weight=\"bold\" fill=\"%s\">%s</text>\n", f2(y+3.5), hex(colAccent), xmlText(title))
 		y += 6
 		cv := &svgCanvas{}
