@@ -77,9 +77,13 @@ func (e *Engine) evalLine(w *workspace, l *circuits.LineSpec, i, ci int, kind Ca
 }
 
 // lineCircle keeps a line's worst over the continuous SWR circle, each
-// quantity credited to the sampled phase nearest the load that reaches it.
+// quantity credited to the load that reaches it: an exact case of its own
+// in the nominal audit (as for the lumped parts), else the nearest
+// sampled phase.
 func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca complex128, ra, scale, k, f float64) {
 	q, has, av, ai, ap := e.lineQ(w, l, i, hNormal, ca, ra, scale, k, f)
+	disc := ca == 0 // an underflowed α circle bounded by a disc: no load to name
+	s := w.carr
 	for _, grp := range []struct {
 		alpha complex128
 		qs    []int
@@ -88,7 +92,15 @@ func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca
 		for _, qi := range grp.qs {
 			h[qi] = has[qi]
 		}
-		e.keep(w, i, first+e.phaseOfAlpha(w, grp.alpha), Circle, &q, &h)
+		th := 0.0
+		if grp.alpha != 0 {
+			th = circuits.ReflectionAngle(w.zc, -s.Voc/grp.alpha-s.Zth)
+		}
+		ci := e.circleIndex(w, first, th, disc)
+		e.keep(w, i, ci, Circle, &q, &h)
+		if ci >= e.NumCases() && w.acc[i].uses(ci) {
+			e.record(w, first, f, th)
+		}
 	}
 }
 

@@ -144,6 +144,12 @@ func (e *Engine) txCircle(w *workspace, first int) {
 			e.txCase(w, first+jj, Circle, s.Alpha(w.circle[jj]))
 		}
 	}
+	if v.SWR > w.tx.Worst.SWR && w.record && ca != 0 {
+		// the new worst: an exact case of its own, as for the parts
+		th := circuits.ReflectionAngle(w.zc, -s.Voc/a-s.Zth)
+		v.Case = e.circleIndex(w, first, th, false)
+		e.record(w, first, s.F, th)
+	}
 	w.keepTx(v, Circle)
 }
 

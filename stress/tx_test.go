@@ -146,7 +146,13 @@ func TestTxCircleWorstFinePhases(t *testing.T) {
 	if got < sampled*(1-1e-9) || got > sampled*(1+1e-4) {
 		t.Errorf("transmitter SWR %g, sampled full solves %g", got, sampled)
 	}
-	if cs := fx.eng.Case(sec.Tx.Worst.Case); cs.Kind != Circle {
+	cs := sec.Case(sec.Tx.Worst.Case)
+	if cs.Kind != Circle {
 		t.Errorf("worst transmitter case is %v, want a phase of the circle", cs.Kind)
+	}
+	// the worst is an exact case of its own: its load, solved in full,
+	// gives the reported SWR (1e-6: the crest search stops at 1e-8 rad)
+	if r := fullSolve(t, fx.c, cs.F, fx.cond.PowerW, cs.Load); relErr(swrOf(r.Zin, 50), got) > 1e-6 {
+		t.Errorf("worst case's load %v gives SWR %g, reported %g", cs.Load.Z, swrOf(r.Zin, 50), got)
 	}
 }
