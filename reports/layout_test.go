@@ -3,7 +3,9 @@ package reports
 import (
 	"bytes"
 	"encoding/xml"
+	"fmt"
 	"math"
+	"math/rand/v2"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -392,5 +394,60 @@ func TestReportLayout(t *testing.T) {
 				t.Errorf("page %d: value cut short: %q", pg, w.text)
 			}
 		}
+	}
+}
+
+// TestSchematicAnyTopology lays out random small networks (parallel parts,
+// bridges, parts between one node and itself, islands joined only through
+// ground, coupled coils anywhere): the layout never panics, every part gets
+// a symbol, and every coordinate is finite.
+func TestSchematicAnyTopology(t *testing.T) {
+	rng := rand.New(rand.NewPCG(15, 1))
+	nodes := []string{"a", "b", "c", "d", "e", "gnd"}
+	kinds := []string{"capacitor", "inductor", "resistor"}
+	vals := []string{"100p", "1u", "50"}
+	measure := svgMeasure()
+	drawn := 0
+	for trial := 0; trial < 600; trial++ {
+		var b strings.Builder
+		b.WriteString("port in a z=50\nport out " + nodes[1+rng.IntN(4)] + " z=50\n")
+		n := 1 + rng.IntN(8)
+		var coils []string
+		for i := 0; i < n; i++ {
+			k := rng.IntN(3)
+			x, y := nodes[rng.IntN(6)], nodes[rng.IntN(6)]
+			if x == y {
+				y = "a"
+			}
+			if x == y {
+				x = "gnd"
+			}
+			name := fmt.Sprintf("%c%d", strings.ToUpper(kinds[k])[0], i)
+			fmt.Fprintf(&b, "%s %s %s %s %s\n", kinds[k], name, x, y, vals[k])
+			if k == 1 {
+				coils = append(coils, name)
+			}
+		}
+		if len(coils) >= 2 {
+			fmt.Fprintf(&b, "coupling K1 %s %s k=0.5\n", coils[0], coils[1])
+		}
+		nl, err := circuits.Parse("r.net", []byte(b.String()))
+		if err != nil {
+			continue // the parser refuses it: nothing to draw
+		}
+		drawn++
+		sec := &stress.Section{File: "r.net", Netlist: nl}
+		sc := LayoutSchematic(sec, measure)
+		if len(sc.symbols) != len(nl.Components) {
+			t.Errorf("%d symbols for %d parts:\n%s", len(sc.symbols), len(nl.Components), b.String())
+		}
+		cv := &svgCanvas{}
+		drawSchematic(cv, sc)
+		if strings.Contains(cv.b.String(), "NaN") || strings.Contains(cv.b.String(), "Inf") || !(sc.W > 0 && sc.H > 0) {
+			t.Errorf("non-finite drawing for:\n%s", b.String())
+		}
+	}
+	if drawn < 50 {
+		t.Errorf("only %d of the random networks parsed: the test checks too little", drawn)
 	}
 }
