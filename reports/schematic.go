@@ -447,7 +447,6 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 	// parts between the same node and itself, or bridges: lanes above
 	type iv struct{ lo, hi float64 }
 	var lanes [][]iv
-	maxLane := 0
 	for _, sp := range spans {
 		sp.x1, sp.x2 = xEnd[sp.c1], xStart[sp.c2]
 		if sp.c1 == sp.c2 {
@@ -477,9 +476,6 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 				sp.lane = l + 1
 				break
 			}
-		}
-		if sp.lane > maxLane {
-			maxLane = sp.lane
 		}
 	}
 
@@ -663,7 +659,6 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 		sc.labels = append(sc.labels, slabel{x: (c1.x + c2.x) / 2, y: ya + 2.6, s: k.Name + " k " + num(k.K, 3),
 			size: schStrSize - 0.5, col: colMuted, anchor: 'C'})
 	}
-	_ = maxLane
 	sc.normalise(measure)
 	return sc
 }
