@@ -62,7 +62,11 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 	t = newTable("carrier", "loss, model", "loss, measured", "share, model", "share, measured", "heat, model", "heat, measured")
 	t.leftCols = 1
 	for _, h := range c.Carriers {
-		t.row(circuits.FormatHz(h.F), num(h.ModelLossDB, 2)+" dB", num(h.MeasLossDB, 2)+" dB",
+		name := circuits.FormatHz(h.F)
+		if h.OffBand {
+			name += " (outside the band)"
+		}
+		t.row(name, num(h.ModelLossDB, 2)+" dB", num(h.MeasLossDB, 2)+" dB",
 			num(100*h.ModelShare, 2)+" %", num(100*h.MeasShare, 2)+" %",
 			circuits.FormatSI(h.ModelW, "W"), circuits.FormatSI(h.MeasW, "W"))
 	}
@@ -77,9 +81,14 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 			if len(g.Parts) > 1 || name != g.Parts[0] {
 				name += " (" + strings.Join(g.Parts, ", ") + ")"
 			}
-			t.row(name, "× "+num(g.Scale, 3), num(g.Sigma, 3))
+			t.row(name, "× "+num(g.Scale, 3), sigmaText(g))
 		}
 		t.write(w)
+		for _, g := range f.Groups {
+			if g.AtBound {
+				fmt.Fprintf(w, "  %s: the fit ran to the edge of its search (Q × 1/50 or × 50): the measurement differs from the model in more than Q (values, layout, the fixture); do not use this factor\n", g.Name)
+			}
+		}
 		fmt.Fprintf(w, "  RMS residual of S: %s before, %s after\n", num(f.RMSBefore, 4), num(f.RMSAfter, 4))
 	}
 	if v.Calibrated != "" {
@@ -120,10 +129,11 @@ type jsonHeat struct {
 }
 
 type jsonFitGroup struct {
-	Name  string   `json:"name"`
-	Parts []string `json:"parts"`
-	Scale *float64 `json:"q_scale"`
-	Sigma *float64 `json:"sigma"`
+	Name    string   `json:"name"`
+	Parts   []string `json:"parts"`
+	Scale   *float64 `json:"q_scale"`
+	Sigma   *float64 `json:"sigma"`
+	AtBound bool     `json:"at_search_bound"`
 }
 
 type jsonFit struct {
@@ -165,7 +175,7 @@ func WriteCompareJSON(w io.Writer, v *CompareView) error {
 	if f := v.Fit; f != nil {
 		jf := &jsonFit{By: v.FitBy, Points: f.Points, LoHz: f.Lo, HiHz: f.Hi, RMSBefore: jsonNum(f.RMSBefore), RMSAfter: jsonNum(f.RMSAfter)}
 		for _, g := range f.Groups {
-			jf.Groups = append(jf.Groups, jsonFitGroup{Name: g.Name, Parts: g.Parts, Scale: jsonNum(g.Scale), Sigma: jsonNum(g.Sigma)})
+			jf.Groups = append(jf.Groups, jsonFitGroup{Name: g.Name, Parts: g.Parts, Scale: jsonNum(g.Scale), Sigma: jsonNum(g.Sigma), AtBound: g.AtBound})
 		}
 		j.Fit = jf
 	}
@@ -177,4 +187,12 @@ func WriteCompareJSON(w io.Writer, v *CompareView) error {
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
 	return enc.Encode(j)
+}
+
+// sigmaText is a fitted factor's uncertainty for people.
+func sigmaText(g stress.FitGroup) string {
+	if g.AtBound || !(g.Sigma < 1e6) {
+		return "not determined"
+	}
+	return num(g.Sigma, 3)
 }

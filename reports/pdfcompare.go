@@ -43,9 +43,19 @@ func WriteComparePDF(w io.Writer, v *CompareView, tool string, date time.Time) e
 	p.cell(bodyW, 4.2, fmt.Sprintf("%-12s %10s %10s %10s %10s %9s %9s", "carrier", "loss mod.", "loss meas.", "share mod.", "share meas.", "heat mod.", "heat meas."), 1, "L")
 	for _, h := range v.Cmp.Carriers {
 		f.SetX(marginL)
-		p.cell(bodyW, 4.2, fmt.Sprintf("%-12s %10s %10s %10s %10s %9s %9s", circuits.FormatHz(h.F),
+		name := circuits.FormatHz(h.F)
+		if h.OffBand {
+			name += "*"
+		}
+		p.cell(bodyW, 4.2, fmt.Sprintf("%-12s %10s %10s %10s %10s %9s %9s", name,
 			num(h.ModelLossDB, 2)+" dB", num(h.MeasLossDB, 2)+" dB", num(100*h.ModelShare, 2)+" %", num(100*h.MeasShare, 2)+" %",
 			circuits.FormatSI(h.ModelW, "W"), circuits.FormatSI(h.MeasW, "W")), 1, "L")
+	}
+	for _, h := range v.Cmp.Carriers {
+		if h.OffBand {
+			p.para(8, "* outside the band: a carrier-also frequency (a wrong filter selected).")
+			break
+		}
 	}
 	if fit := v.Fit; fit != nil {
 		p.sub("Q fitted to the measurement", 20)
@@ -55,7 +65,10 @@ func WriteComparePDF(w io.Writer, v *CompareView, tool string, date time.Time) e
 		p.mono(8)
 		for _, g := range fit.Groups {
 			f.SetX(marginL)
-			p.cell(bodyW, 4.2, fmt.Sprintf("%-28s Q × %s ± %s", p.fit(g.Name+" ("+strings.Join(g.Parts, ", ")+")", 60), num(g.Scale, 3), num(g.Sigma, 3)), 1, "L")
+			p.cell(bodyW, 4.2, fmt.Sprintf("%-28s Q × %s ± %s", p.fit(g.Name+" ("+strings.Join(g.Parts, ", ")+")", 60), num(g.Scale, 3), sigmaText(g)), 1, "L")
+			if g.AtBound {
+				p.para(8, g.Name+": the fit ran to the edge of its search; the measurement differs from the model in more than Q. Do not use this factor.")
+			}
 		}
 		if v.Calibrated != "" {
 			p.para(8.5, "Calibrated netlist: "+v.Calibrated+".")
@@ -112,7 +125,9 @@ func (p *pdfw) compareOverlay(c *stress.Comparison) {
 	// carrier band
 	lo, hi := math.Inf(1), 0.0
 	for _, h := range c.Carriers {
-		lo, hi = math.Min(lo, h.F), math.Max(hi, h.F)
+		if !h.OffBand {
+			lo, hi = math.Min(lo, h.F), math.Max(hi, h.F)
+		}
 	}
 	if hi > 0 {
 		x0, x1 := math.Max(ax.x(lo), plotLeft), math.Min(ax.x(hi), plotLeft+plotW)

@@ -20,13 +20,14 @@ import (
 type ComparePoint struct {
 	F           float64
 	Model, Meas [4]complex128 // S11 S12 S21 S22, referred to the measurement's references
-	Where       string        // "band", "harmonic" or "sweep"
+	Where       string        // "band", "off-band", "harmonic" or "sweep"
 	Order       int           // harmonic order (1 for carriers and the sweep)
 }
 
 // CarrierHeat is the dissipated share at one carrier.
 type CarrierHeat struct {
 	F                       float64
+	OffBand                 bool    // a carrier-also frequency
 	ModelShare, MeasShare   float64 // 1 − |S11|² − |S21|²
 	ModelW, MeasW           float64 // watts at the audited power
 	ModelLossDB, MeasLossDB float64 // insertion loss −20·log|S21|
@@ -102,9 +103,11 @@ func inSpan(t *circuits.Touchstone, f float64) bool {
 	return f >= lo*(1-1e-9) && f <= hi*(1+1e-9)
 }
 
-// Compare sets the model c against measurement t at the carriers (the
-// band), their harmonics up to hmax, and every measured frequency.
-func Compare(c *circuits.Circuit, t *circuits.Touchstone, carriers []float64, hmax int, powerW float64) (*Comparison, error) {
+// Compare sets the model c against measurement t at the carriers, their
+// harmonics up to hmax, and every measured frequency. The first nBand
+// carriers are the band; the rest are off-band carriers (a wrong filter
+// selected), compared and given their heat but not counted as the band.
+func Compare(c *circuits.Circuit, t *circuits.Touchstone, carriers []float64, nBand, hmax int, powerW float64) (*Comparison, error) {
 	if t.Ports != 2 {
 		return nil, fmt.Errorf("%s holds %d-port data; compare needs a two-port (.s2p)", t.File, t.Ports)
 	}
@@ -128,16 +131,21 @@ func Compare(c *circuits.Circuit, t *circuits.Touchstone, carriers []float64, hm
 		}
 	}
 	bandLo, bandHi := math.Inf(1), 0.0
-	for _, f := range carriers {
-		bandLo, bandHi = math.Min(bandLo, f), math.Max(bandHi, f)
+	for fi, f := range carriers {
+		where := "band"
+		if fi < nBand {
+			bandLo, bandHi = math.Min(bandLo, f), math.Max(bandHi, f)
+		} else {
+			where = "off-band"
+		}
 		if !inSpan(t, f) {
 			return nil, fmt.Errorf("carrier %s lies outside the measurement (%s to %s)", circuits.FormatHz(f), circuits.FormatHz(cmp.Lo), circuits.FormatHz(cmp.Hi))
 		}
-		if err := add(f, "band", 1); err != nil {
+		if err := add(f, where, 1); err != nil {
 			return nil, err
 		}
 		p := cmp.Points[len(cmp.Points)-1]
-		h := CarrierHeat{F: f,
+		h := CarrierHeat{F: f, OffBand: fi >= nBand,
 			ModelShare: circuits.DissipatedShare(p.Model[0], p.Model[2]), MeasShare: circuits.DissipatedShare(p.Meas[0], p.Meas[2]),
 			ModelLossDB: -circuits.DB(p.Model[2]), MeasLossDB: -circuits.DB(p.Meas[2])}
 		// with the source matched to port 1 the incident power is the available power
@@ -189,7 +197,15 @@ type FitGroup struct {
 	Parts []string // inductor names
 	Scale float64  // Q multiplier
 	Sigma float64  // one standard deviation of Scale (from the fit's curvature)
+	// AtBound: the search stopped at the edge of its range (Q × 1/50 or
+	// × 50): the measurement differs from the model in more than Q
+	AtBound bool
 }
+
+// qSearchLog bounds the Q factors searched: ×1/50 to ×50.
+var qSearchLog = math.Log(50)
+
+func clampLog(x float64) float64 { return math.Max(-qSearchLog, math.Min(qSearchLog, x)) }
 
 // Fit is a least-squares calibration of the model's inductor Q.
 type Fit struct {
@@ -203,8 +219,12 @@ type Fit struct {
 
 // FitQ fits Q scale factors of the model's inductors to the measured S21
 // and S11 at the measured frequencies within [lo, hi]: one factor per
-// inductor (perPart) or one for all of them. Residuals are the complex
-// differences of S21 and S11; the factors are searched in log scale with
+// inductor (perPart) or one for all of them. Residuals are, per point, the
+// differences of |S21|, of |S11| and of the dissipated share
+// 1 − |S11|² − |S21|²: magnitudes, because a fixture's phase offset is not
+// the filter's, and the share, because it is what Q decides and it barely
+// moves when a capacitor is a little off value. The factors are searched
+// in log scale, within ×1/50 to ×50, with
 // gonum's Nelder–Mead, and their uncertainty is the usual linearised
 // estimate σ² = s²·(JᵀJ)⁻¹ with s² the residual variance (Gauss–Newton
 // covariance; e.g. Press et al., Numerical Recipes, ch. 15).
@@ -236,7 +256,7 @@ func FitQ(c *circuits.Circuit, t *circuits.Touchstone, lo, hi float64, perPart b
 	if len(groups) == 0 {
 		return nil, fmt.Errorf("the netlist has no modelled inductor whose Q could be fitted")
 	}
-	if len(fs)*4 <= len(groups) {
+	if len(fs)*3 <= len(groups) {
 		return nil, fmt.Errorf("the measurement has %d points between %s and %s, too few to fit %d factors (widen the fit band)",
 			len(fs), circuits.FormatHz(lo), circuits.FormatHz(hi), len(groups))
 	}
@@ -252,7 +272,7 @@ func FitQ(c *circuits.Circuit, t *circuits.Touchstone, lo, hi float64, perPart b
 		}
 		for g, m := range members {
 			for _, i := range m {
-				qf[i] = math.Exp(x[g])
+				qf[i] = math.Exp(clampLog(x[g]))
 			}
 		}
 		sc := c.Scaled(nil, qf)
@@ -263,14 +283,15 @@ func FitQ(c *circuits.Circuit, t *circuits.Touchstone, lo, hi float64, perPart b
 				solveErr = err
 				ms = [4]complex128{}
 			}
-			for _, k := range []int{2, 0} { // S21, S11
-				d := ms[k] - meas[i][k]
-				out = append(out, real(d), imag(d))
-			}
+			me := meas[i]
+			out = append(out,
+				cmplx.Abs(ms[2])-cmplx.Abs(me[2]),
+				cmplx.Abs(ms[0])-cmplx.Abs(me[0]),
+				circuits.DissipatedShare(ms[0], ms[2])-circuits.DissipatedShare(me[0], me[2]))
 		}
 		return out
 	}
-	buf := make([]float64, 0, 4*len(fs))
+	buf := make([]float64, 0, 3*len(fs))
 	ssq := func(x []float64) float64 {
 		var s float64
 		for _, r := range residuals(x, buf) {
@@ -292,7 +313,7 @@ func FitQ(c *circuits.Circuit, t *circuits.Touchstone, lo, hi float64, perPart b
 	x := res.X
 	after := ssq(x)
 	// Jacobian by central differences in log scale
-	m, p := 4*len(fs), len(x)
+	m, p := 3*len(fs), len(x)
 	jac := mat.NewDense(m, p, nil)
 	const h = 1e-5
 	for j := 0; j < p; j++ {
@@ -314,7 +335,8 @@ func FitQ(c *circuits.Circuit, t *circuits.Touchstone, lo, hi float64, perPart b
 	fit := &Fit{Points: len(fs), Lo: lo, Hi: hi, Iterations: res.Stats.MajorIterations,
 		RMSBefore: math.Sqrt(before / float64(m)), RMSAfter: math.Sqrt(after / float64(m))}
 	for g := range groups {
-		groups[g].Scale = math.Exp(x[g])
+		groups[g].Scale = math.Exp(clampLog(x[g]))
+		groups[g].AtBound = math.Abs(clampLog(x[g])-x[g]) > 0 || math.Abs(math.Abs(x[g])-qSearchLog) < 1e-6
 		groups[g].Sigma = math.Inf(1)
 		if invOK && dof > 0 {
 			if v := cov.At(g, g) * after / dof; v >= 0 {

@@ -99,7 +99,7 @@ func TestFitQRecoversScale(t *testing.T) {
 func TestCompareDissipatedShare(t *testing.T) {
 	c := buildText(t, bpf)
 	ts := synthetic(t, c, 1, []float64{13e6, 14e6, 14.2e6, 15e6, 28.4e6, 42.6e6}, 0, 1)
-	cmp, err := Compare(c, ts, []float64{14.2e6}, 3, 100)
+	cmp, err := Compare(c, ts, []float64{14.2e6}, 1, 3, 100)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -87,16 +87,13 @@ func runCompare(args []string, stdout, stderr io.Writer) (int, error) {
 		return exitUsage, usagef("%s: %v", file, err)
 	}
 	carriers := cond.Carriers()
-	cmp, err := stress.Compare(c, ts, carriers, cond.HarmonicMax, cond.PowerW)
+	cmp, err := stress.Compare(c, ts, carriers, len(carriers)-len(cond.CarrierAlso), cond.HarmonicMax, cond.PowerW)
 	if err != nil {
 		return exitUsage, usagef("%s: %v", file, err)
 	}
 	v := &reports.CompareView{File: file, Title: nl.Title, Measured: measPath, Points: len(ts.F), Ref: ts.Ref, Cmp: cmp, FitBy: *fit}
 	if *fit != "" {
-		lo, hi := carriers[0], carriers[0]
-		for _, f := range carriers {
-			lo, hi = min(lo, f), max(hi, f)
-		}
+		lo, hi := cond.BandLo, cond.BandHi
 		if *fitBand != "" {
 			l, h, ok := strings.Cut(*fitBand, ":")
 			if !ok {
