@@ -47,7 +47,7 @@ func TestTouchstoneErrors(t *testing.T) {
 		{"3.6 0 0\n", "f.s1p:1:1: "},
 		{"# MHz S RI R 50\n3.6 0\n", "f.s1p:2:1: "},
 		{"# MHz S RI R 50\n3.6 x 0\n", "f.s1p:2:5: "},
-		{"# MHz S RI R 50\n3.6 1.2 0\n", "|S11| = 1.2 is above 1"},
+		{"# MHz S RI R 50\n! c\n3.5 0 0\n3.6 1.2 0\n", "f.s1p:4:5: at 3.6 MHz |S11| = 1.2 is above 1"},
 	}
 	for _, c := range cases {
 		_, err := ReadTouchstone1("f.s1p", []byte(c.src))

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math/cmplx"
 	"strconv"
+	"strings"
 
 	"rfstress/circuits"
 )
@@ -24,7 +25,7 @@ func ReadTouchstone1(file string, src []byte) ([]LoadPoint, error) {
 	for i, f := range ts.F {
 		s := ts.S[i][0]
 		if cmplx.Abs(s) > 1+1e-9 {
-			return nil, &circuits.Error{Pos: circuits.Pos{File: file, Line: 1, Col: 1},
+			return nil, &circuits.Error{Pos: dataLine(file, src, i),
 				Msg: fmt.Sprintf("at %s |S11| = %.4g is above 1: an active load", circuits.FormatHz(f), cmplx.Abs(s)), Want: "a passive antenna, |S11| ≤ 1"}
 		}
 		z := ts.ZAt(f)
@@ -34,6 +35,29 @@ func ReadTouchstone1(file string, src []byte) ([]LoadPoint, error) {
 		pts = append(pts, LoadPoint{F: f, Z: z, Pos: circuits.Pos{File: file}})
 	}
 	return pts, nil
+}
+
+// dataLine finds where the i-th frequency of a one-port file is written:
+// one data line per frequency, after comments (!), the option line (#)
+// and keywords ([…]); the column is that of the parameter's first number.
+func dataLine(file string, src []byte, i int) circuits.Pos {
+	n := 0
+	for ln, raw := range strings.Split(strings.ReplaceAll(string(src), "\r\n", "\n"), "\n") {
+		body, _, _ := strings.Cut(raw, "!")
+		fs := circuits.Fields(body)
+		if len(fs) == 0 || strings.HasPrefix(fs[0].Text, "#") || strings.HasPrefix(fs[0].Text, "[") {
+			continue
+		}
+		if n == i {
+			col := fs[0].Col
+			if len(fs) > 1 {
+				col = fs[1].Col
+			}
+			return circuits.Pos{File: file, Line: ln + 1, Col: col}
+		}
+		n++
+	}
+	return circuits.Pos{File: file, Line: 1, Col: 1}
 }
 
 // quote renders text from a file safely: control characters escaped.
