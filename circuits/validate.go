@@ -20,10 +20,10 @@ func groundSpelling(s string) bool {
 		return false
 	}
 	switch strings.ToLower(s) {
-	case "gnd", "ground", "0", "00", "gnd0", "agnd", "vss":
+	case "gnd", "ground":
 		return true
 	}
-	return strings.Trim(s, "0") == "" // 0, 000, …
+	return strings.Trim(s, "0") == "" // 0, 00, 000: ground in SPICE
 }
 
 // SkipBOM drops a UTF-8 byte-order mark that some editors put at the start
