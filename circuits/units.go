@@ -78,7 +78,7 @@ func ParseValue(s string, want ...string) (float64, error) {
 	_ = r
 	pre := rest[:size]
 	if strings.HasPrefix(strings.ToUpper(rest), "MEG") {
-		return 0, fmt.Errorf("%s: MEG is the SPICE spelling of mega; here write M for mega (m is milli), e.g. %sM", Quote(s), num)
+		return 0, fmt.Errorf("%s: MEG is how circuit simulators spell mega; here write M for mega (m is milli), e.g. %sM", Quote(s), num)
 	}
 	f, ok := prefixes[pre]
 	if !ok {

@@ -23,7 +23,7 @@ func groundSpelling(s string) bool {
 	case "gnd", "ground":
 		return true
 	}
-	return strings.Trim(s, "0") == "" // 0, 00, 000: ground in SPICE
+	return strings.Trim(s, "0") == "" // 0, 00, 000: ground in circuit-simulator netlists
 }
 
 // SkipBOM drops a UTF-8 byte-order mark that some editors put at the start
