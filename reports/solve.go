@@ -19,6 +19,9 @@ type SolvePart struct {
 	Vpk   float64 `json:"vpk"`
 	Irms  float64 `json:"irms"`
 	Pdiss float64 `json:"pdiss"`
+	// Note says more where the row's figures need it: a line's crest
+	// along it and its far end, a coil's terminal current.
+	Note string `json:"note,omitempty"`
 }
 
 // SolveView is everything the solve command shows.
@@ -37,7 +40,13 @@ type SolveView struct {
 	S11deg      float64     `json:"s11_deg"`
 	S21dB       float64     `json:"s21_db"`
 	S21deg      float64     `json:"s21_deg"`
-	Components  []SolvePart `json:"components"`
+	// what the transmitter sees, referred to port in z
+	TxSWR   float64 `json:"tx_swr"`
+	TxReflW float64 `json:"tx_reflected_w"`
+	// a balanced antenna port with cm=: the common-mode current and power
+	IcmA       *float64    `json:"icm_a,omitempty"`
+	PcmW       *float64    `json:"p_cm_w,omitempty"`
+	Components []SolvePart `json:"components"`
 	// Findings are sentences about the solve itself (a power balance that
 	// does not close).
 	Findings []string `json:"findings,omitempty"`
@@ -69,9 +78,18 @@ func WriteSolveText(w io.Writer, v *SolveView) error {
 		t.row(p.Name, p.Kind, si(p.Vrms, "V"), si(p.Vpk, "V"), si(p.Irms, "A"), si(p.Pdiss, "W"))
 	}
 	t.write(w)
+	for _, p := range v.Components {
+		if p.Note != "" {
+			fmt.Fprintf(w, "  %s: %s\n", p.Name, p.Note)
+		}
+	}
 	fmt.Fprintf(w, "\n  into the network  %s\n", si(v.PinW, "W"))
 	fmt.Fprintf(w, "  into the load     %s\n", si(v.PoutW, "W"))
+	if v.PcmW != nil && v.IcmA != nil {
+		fmt.Fprintf(w, "  common mode       %s (%s into the load's centre impedance)\n", si(*v.PcmW, "W"), si(*v.IcmA, "A"))
+	}
 	fmt.Fprintf(w, "  lost in parts     %s\n", si(v.PlossW, "W"))
+	fmt.Fprintf(w, "  transmitter sees  SWR %s, %s reflected\n", FormatSWR(v.TxSWR), si(v.TxReflW, "W"))
 	if v.ZinRe != nil && v.ZinIm != nil {
 		fmt.Fprintf(w, "  input impedance   %s\n", circuits.FormatComplex(complex(*v.ZinRe, *v.ZinIm)))
 	} else {

@@ -95,10 +95,29 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 		v.ZinRe, v.ZinIm = nil, nil
 		v.Findings = append(v.Findings, check.Finding(f))
 	}
+	g, _, refl := c.Reflection(r.Vin, r.Iin)
+	v.TxSWR, v.TxReflW = stress.SWRFromGamma(g), refl
+	if c.HasCM {
+		v.IcmA, v.PcmW = finite(cmplx.Abs(r.Icm)), finite(r.Pcm)
+	}
 	for i, e := range c.Elements {
 		ps := r.Parts[i]
-		v.Components = append(v.Components, reports.SolvePart{Name: e.Name, Kind: string(e.Kind),
-			Vrms: cmplx.Abs(ps.V), Vpk: math.Sqrt2 * cmplx.Abs(ps.V), Irms: cmplx.Abs(ps.I), Pdiss: ps.Ploss})
+		sp := reports.SolvePart{Name: e.Name, Kind: string(e.Kind),
+			Vrms: cmplx.Abs(ps.V), Vpk: math.Sqrt2 * cmplx.Abs(ps.V), Irms: cmplx.Abs(ps.I), Pdiss: ps.Ploss}
+		if l := e.Line(); l != nil {
+			// a line's stress is its crest along it, not its end
+			vw, iw := l.VoltageWaves(ps.V, ps.I)
+			vm, zv := l.MaxAlong(f, vw, circuits.Wave{}, 0)
+			im, zi := l.MaxAlong(f, iw, circuits.Wave{}, 0)
+			sp.Vrms, sp.Vpk, sp.Irms = vm, math.Sqrt2*vm, im
+			sp.Note = fmt.Sprintf("crests along the line: voltage at %s, current at %s from end 1; end 1 %s, %s; end 2 %s, %s",
+				circuits.FormatSI(zv, "m"), circuits.FormatSI(zi, "m"), circuits.FormatSI(cmplx.Abs(ps.V), "V"), circuits.FormatSI(cmplx.Abs(ps.I), "A"),
+				circuits.FormatSI(cmplx.Abs(ps.V2), "V"), circuits.FormatSI(cmplx.Abs(ps.I2), "A"))
+		}
+		if ps.It != 0 {
+			sp.Note = fmt.Sprintf("winding current %s (shown), terminal current %s", circuits.FormatSI(cmplx.Abs(ps.I), "A"), circuits.FormatSI(cmplx.Abs(ps.It), "A"))
+		}
+		v.Components = append(v.Components, sp)
 	}
 	for _, t := range targets {
 		if err := t.write(stdout, func(w io.Writer) error { return reports.WriteSolveJSON(w, v) }); err != nil {
