@@ -26,20 +26,20 @@ type SolvePart struct {
 
 // SolveView is everything the solve command shows.
 type SolveView struct {
-	File        string      `json:"file"`
-	Title       string      `json:"title"`
-	FrequencyHz float64     `json:"frequency_hz"`
-	PowerW      float64     `json:"power_w"`
-	Load        string      `json:"load"`
-	PinW        float64     `json:"p_in_w"`
-	PoutW       float64     `json:"p_out_w"`
-	PlossW      float64     `json:"p_loss_w"`
-	ZinRe       *float64    `json:"zin_re_ohm"` // null when the solve cannot be trusted
-	ZinIm       *float64    `json:"zin_im_ohm"`
-	S11dB       float64     `json:"s11_db"`
-	S11deg      float64     `json:"s11_deg"`
-	S21dB       float64     `json:"s21_db"`
-	S21deg      float64     `json:"s21_deg"`
+	File        string   `json:"file"`
+	Title       string   `json:"title"`
+	FrequencyHz float64  `json:"frequency_hz"`
+	PowerW      float64  `json:"power_w"`
+	Load        string   `json:"load"`
+	PinW        float64  `json:"p_in_w"`
+	PoutW       float64  `json:"p_out_w"`
+	PlossW      float64  `json:"p_loss_w"`
+	ZinRe       *float64 `json:"zin_re_ohm"` // null when the solve cannot be trusted
+	ZinIm       *float64 `json:"zin_im_ohm"`
+	S11dB       float64  `json:"s11_db"`
+	S11deg      float64  `json:"s11_deg"`
+	S21dB       float64  `json:"s21_db"`
+	S21deg      float64  `json:"s21_deg"`
 	// what the transmitter sees, referred to port in z
 	TxSWR   float64 `json:"tx_swr"`
 	TxReflW float64 `json:"tx_reflected_w"`
