@@ -123,7 +123,7 @@ func WriteTuneText(w io.Writer, v *TuneView) error {
 	}
 	t.write(w)
 	if n := v.Unmatched(); n > 0 {
-		fmt.Fprintf(w, "\n  %d of %d loads cannot be matched within the parts' ranges: best SWR and the limit that stopped it are shown\n", n, len(v.Rows))
+		fmt.Fprintf(w, "\n  %d of %d loads cannot be matched within the parts' ranges: best SWR and the limit that stopped it are shown;\n  they are not audited, and transmitting into them is outside this check\n", n, len(v.Rows))
 	}
 	fmt.Fprintf(w, "\n  CAUTION: tuner parts carry kilovolts at these settings; never adjust while transmitting (SAFETY.md).\n")
 	return nil
