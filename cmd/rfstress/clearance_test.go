@@ -5,6 +5,9 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"rfstress/circuits"
+	"rfstress/ratings"
 )
 
 // A connector at the antenna end of a lossless 50 Ω coax, 100 W available
@@ -79,5 +82,49 @@ func TestConnectorAtHighSWRAndAltitude(t *testing.T) {
 		if code != 2 || !strings.Contains(errs, "altitude") {
 			t.Errorf("--altitude %s: exit %d, %q", bad, code, errs)
 		}
+	}
+}
+
+// TestTemplateTunerPlateGaps: the tuner template sizes its air variables'
+// plate gaps with the rest of the ratings: each is the smallest spacing
+// step whose derated arcing voltage holds the capacitor's worst peak, so
+// it is at least the gap solved by hand from that peak with Kuffel's
+// formula (24.22·δd + 6.08·√(δd) kV; ×0.8 RF, ×0.75 edges, ×0.7 standard
+// derating; δ = 293.15/298.15 for 25 °C air at sea level), and the next
+// smaller step is below it.
+func TestTemplateTunerPlateGaps(t *testing.T) {
+	nl := templateParts(t, "tuner", "--freq", "7.1M", "--power", "400")
+	_, src, _ := runCLI(t, "template", "tuner", "--freq", "7.1M", "--power", "400")
+	sec, err := auditSource("t.net", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for i, c := range nl.Components {
+		if w, _ := c.Attrs.Word("dielectric"); c.Kind != circuits.Capacitor || w != "air" {
+			continue
+		}
+		n++
+		gap, ok := c.Attrs.Num("gap")
+		if !ok {
+			t.Fatalf("%s: air variable without gap=", c.Name)
+		}
+		vpk := sec.Parts[i].Stress[ratings.Arc].Value
+		vkv := vpk / (0.8 * 0.75 * 0.7) / 1e3
+		sq := (-6.08 + math.Sqrt(6.08*6.08+4*24.22*vkv)) / (2 * 24.22)
+		need := sq * sq / (293.15 / 298.15) / 100
+		prev := 0.0
+		for _, g := range gapSteps {
+			if g < gap*(1-1e-9) {
+				prev = g
+			}
+		}
+		// the step is the least that holds the peak (1e-6 for rounding)
+		if gap < need*(1-1e-6) || (prev > 0 && prev >= need*(1+1e-6)) {
+			t.Errorf("%s: gap %.2f mm for %.0f V peak; hand %.3f mm, smaller step %.2f mm", c.Name, gap*1e3, vpk, need*1e3, prev*1e3)
+		}
+	}
+	if n != 2 {
+		t.Errorf("%d air variables, want the tuner's two", n)
 	}
 }

@@ -32,6 +32,7 @@ type tmplPart struct {
 	vpk    float64
 	irms   float64
 	wire   float64 // inductors, m
+	gap    float64 // air-dielectric capacitors: plate spacing, m
 	remark string
 }
 
@@ -51,6 +52,9 @@ var (
 	vpkSteps  = []float64{100, 200, 300, 500, 750, 1000, 1500, 2000, 3000, 4000, 5000, 7500, 10000, 15000, 20000}
 	irmsSteps = []float64{0.5, 1, 1.5, 2, 3, 4, 5, 7.5, 10, 15, 20, 30}
 	wireSteps = []float64{0.5e-3, 0.8e-3, 1e-3, 1.25e-3, 1.5e-3, 2e-3, 2.5e-3, 3e-3, 4e-3, 5e-3}
+	// plate spacings of air variables, from receiving types to
+	// transmitting ones (common practice)
+	gapSteps = []float64{0.3e-3, 0.5e-3, 0.75e-3, 1e-3, 1.5e-3, 2e-3, 3e-3, 4e-3, 5e-3, 7.5e-3, 10e-3}
 )
 
 func runTemplate(args []string, stdout, stderr io.Writer) (int, error) {
@@ -377,10 +381,11 @@ func (d *tmplDesign) text(f0, power float64) []byte {
 		line("#   %s", w)
 	}
 	line("#")
-	line("# Ratings (vpk=, irms=, wire=) were sized by auditing this file under its own")
-	line("# audit line, with the standard derating, and rounded up to common steps. They")
-	line("# are what the parts must at least carry: replace them with the ratings of the")
-	line("# parts you buy, add tol=, real Q and cores, and audit again:")
+	line("# Ratings (vpk=, irms=, wire=, an air variable's plate gap=) were sized by")
+	line("# auditing this file under its own audit line, with the standard derating,")
+	line("# and rounded up to common steps. They are what the parts must at least")
+	line("# carry: replace them with the ratings of the parts you buy, add tol=, real")
+	line("# Q and cores, and audit again:")
 	line("#   rfstress audit my.net --report my.pdf")
 	line("#")
 	line("# CAUTION: RF voltages at tanks, trimmers and tuner capacitors reach kilovolts")
@@ -394,8 +399,12 @@ func (d *tmplDesign) text(f0, power float64) []byte {
 	for _, p := range d.parts {
 		switch p.kind {
 		case circuits.Capacitor:
-			line("capacitor %-3s %-3s %-3s %-8s q=%s dielectric=%s vpk=%s irms=%s   # %s",
-				p.name, p.a, p.b, siText(p.value)+"F", p.q, p.diel, trimFloat(p.vpk), trimFloat(p.irms), p.remark)
+			gap := ""
+			if p.diel == "air" {
+				gap = " gap=" + trimFloat(p.gap*1e3) + "mm"
+			}
+			line("capacitor %-3s %-3s %-3s %-8s q=%s dielectric=%s vpk=%s irms=%s%s   # %s",
+				p.name, p.a, p.b, siText(p.value)+"F", p.q, p.diel, trimFloat(p.vpk), trimFloat(p.irms), gap, p.remark)
 		case circuits.Inductor:
 			line("inductor  %-3s %-3s %-3s %-8s q=%s wire=%smm   # %s",
 				p.name, p.a, p.b, siText(p.value)+"H", p.q, trimFloat(p.wire*1e3), p.remark)
@@ -422,7 +431,7 @@ func zText(z complex128) string {
 // whole file audits ok.
 func sizeRatings(d *tmplDesign, f0, power float64) ([]byte, error) {
 	for _, p := range d.parts {
-		p.vpk, p.irms, p.wire = vpkSteps[0], irmsSteps[0], wireSteps[0]
+		p.vpk, p.irms, p.wire, p.gap = vpkSteps[0], irmsSteps[0], wireSteps[0], gapSteps[0]
 	}
 	for round := 0; round < 40; round++ {
 		src := d.text(f0, power)
@@ -446,6 +455,8 @@ func sizeRatings(d *tmplDesign, f0, power float64) ([]byte, error) {
 					p.irms = nextStep(irmsSteps, p.irms)
 				case ratings.Jrms, ratings.Temp, ratings.Pdiss:
 					p.wire = nextStep(wireSteps, p.wire)
+				case ratings.Arc:
+					p.gap = nextStep(gapSteps, p.gap)
 				}
 			}
 		}
