@@ -35,15 +35,32 @@ func (e *Engine) BandUse(n int) (*BandUse, error) {
 		if err != nil {
 			return nil, err
 		}
-		sec, err := sub.Audit()
-		if err != nil {
+		// the use Audit's verdicts would give (PartResult.Util), read from
+		// the accumulators: no verdict texts, findings or sections for a
+		// plot that shows one number per part
+		w := sub.newWorkspace(e.C)
+		w.record = true
+		if _, err := sub.run(w); err != nil {
 			return nil, err
 		}
-		for i, p := range sec.Parts {
-			u.Use[i] = append(u.Use[i], p.Util)
+		for i := range e.C.Elements {
+			u.Use[i] = append(u.Use[i], w.partUse(i))
 		}
 	}
 	return u, nil
+}
+
+// partUse is part i's worst use of a derated rating over the run, guides
+// left out: what judge makes PartResult.Util.
+func (w *workspace) partUse(i int) float64 {
+	a, lim := &w.acc[i], &w.lim[i]
+	use := 0.0
+	for qi := 0; qi < nQ; qi++ {
+		if a.has[qi] && !lim.advice[qi] && lim.derated[qi] > 0 && a.util[qi] > use {
+			use = a.util[qi]
+		}
+	}
+	return use
 }
 
 // CasesPerCarrier is the number of antenna-port terminations audited at
