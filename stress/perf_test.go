@@ -3,6 +3,7 @@ package stress
 import (
 	"math"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
@@ -17,7 +18,11 @@ func TestBandUseMatchesAudit(t *testing.T) {
 	}
 	n := 0
 	for _, f := range files {
-		fx := build(t, stationFile(t, filepath.Base(f)))
+		src := stationFile(t, filepath.Base(f))
+		if strings.Contains(src, "measured=") {
+			continue // measured data are loaded by the command, not here
+		}
+		fx := build(t, src)
 		u, err := fx.eng.BandUse(4)
 		if err != nil {
 			t.Fatal(err)
