@@ -16,6 +16,10 @@ type Element struct {
 	Nodes  []int   // every terminal's node index, in statement order
 	Value  float64 // F, H or Ω
 	Branch int     // first branch-current unknown (−1 when it has none)
+	// Rdc is the series resistance at DC of kinds that conduct DC
+	// through a winding (an inductor's rdc=); 0 when not given, and the
+	// stress layer may supply the winding's wire resistance instead.
+	Rdc    float64
 	q      []Point // Q against frequency (constant when one point)
 	qScale float64
 	qLn    []float64 // ln f, ln Q of each q point, taken once
@@ -25,6 +29,7 @@ type Element struct {
 	line   *LineSpec     // lines only; shared by scaled copies, never changed
 	cp     float64       // inductor self-capacitance, F (cp= or srf=)
 	esl    float64       // capacitor series inductance, H (esl= or srf=)
+	sw     switchState
 }
 
 type mutual struct {
@@ -55,6 +60,7 @@ type Circuit struct {
 	cmBranch int
 	outMeas  *measuredData // measured antenna impedance
 	nBranch  int
+	byName   map[string]int
 }
 
 // Build prepares a parsed netlist for solving.
@@ -115,6 +121,7 @@ func Build(nl *Netlist) (*Circuit, error) {
 		}
 		c.outMeas = m
 	}
+	c.byName = byName
 	for _, k := range nl.Couplings {
 		i, ok1 := byName[k.L1]
 		j, ok2 := byName[k.L2]

@@ -23,6 +23,9 @@ func init() {
 func prepareInductor(e *Element) {
 	prepareLoss(e)
 	a := e.Comp.Attrs
+	if v, ok := a.Num("rdc"); ok {
+		e.Rdc = v
+	}
 	if v, ok := a.Num("cp"); ok {
 		e.cp = v
 	} else if srf, ok := a.Num("srf"); ok && e.Value > 0 {
@@ -30,6 +33,13 @@ func prepareInductor(e *Element) {
 		e.cp = 1 / (w * w * e.Value)
 	}
 }
+
+// MinDCR is the resistance given at DC to a branch with none stated (an
+// inductor without rdc= or a known winding, a closed contact without
+// ron=, a shorted part): small enough to change no figure that matters,
+// large enough that parallel ideal windings do not make the DC system
+// singular.
+const MinDCR = 1e-6
 
 // SelfResonance is a part's self-resonant frequency from its parasitic
 // (an inductor's cp, a capacitor's esl); 0 when none is given.
@@ -68,6 +78,11 @@ type inductorModel struct{}
 func (inductorModel) Branches(*Element) int { return 1 }
 
 func (m inductorModel) Stamp(e *Element, s *System, f float64) {
+	if f == 0 {
+		// at DC the coil is its winding resistance
+		s.Branch(e.A, e.B, e.Branch, complex(math.Max(e.Rdc, MinDCR), 0))
+		return
+	}
 	// at DC the branch equation V = 0·I makes the coil a short; its
 	// winding resistance is read by the DC layer when it exists
 	s.Branch(e.A, e.B, e.Branch, m.winding(e, f))
@@ -98,6 +113,9 @@ func (m inductorModel) winding(e *Element, f float64) complex128 {
 }
 
 func (m inductorModel) LossR(e *Element, f float64) float64 {
+	if f == 0 {
+		return math.Max(e.Rdc, MinDCR)
+	}
 	if z, ok := e.measuredZ(f); ok {
 		return real(z)
 	}
@@ -127,6 +145,8 @@ var inductorAttrs = map[string]AttrSpec{
 	"steps":  {Type: TText, Help: "a number of evenly spaced settings (taps), or the settings: 12 or 2u,4u,8u"},
 	"gap":    gapAttr,
 	"medium": mediumAttr,
+	"rdc":    {Type: TPositive, Units: []string{"ohm"}, Help: "DC resistance of the winding in Ω, e.g. 0.8 (default: from wire= and turns=)"},
+	"vpk":    {Type: TPositive, Units: []string{"V"}, Help: "rated peak voltage of the winding's insulation to its surroundings in V, e.g. 5k for a plate choke"},
 }
 
 // Impedance at the terminals: (R + jωL) ∥ 1/(jωCp).

@@ -60,6 +60,9 @@ type KindSpec struct {
 	// must be nodes other statements connect, it adds no node to the
 	// circuit and no path to ground.
 	Observes bool
+	// Source marks a DC source (supply, draw): not a part that can fail,
+	// so single-part faults leave it alone.
+	Source bool
 }
 
 var kindSpecs = map[Kind]*KindSpec{}

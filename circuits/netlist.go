@@ -186,8 +186,19 @@ type Netlist struct {
 	Couplings  []*Coupling
 	Materials  []*Material
 	Audit      []*Directive
+	Selects    []*Select
 	Nodes      []string       // non-ground nodes in order of first use
 	NodePos    map[string]Pos // where each node is first named
+}
+
+// Select is one position of a switched bank: the switches it closes
+// (every other switch is open) and the band it serves.
+type Select struct {
+	Name   string
+	Closed []string
+	Lo, Hi float64
+	Pos    Pos
+	CPos   Pos // of the closed= value
 }
 
 // SHA256 is the hex digest of the file as read.
@@ -279,6 +290,7 @@ type parser struct {
 	names     map[string]Pos
 	coreNames map[string]Pos
 	matNames  map[string]Pos
+	selNames  map[string]Pos
 	nodeSeen  map[string]bool
 	nodePos   map[string]Pos
 	// port statements seen (even faulty ones) and where each names its node
@@ -314,7 +326,7 @@ func Parse(file string, src []byte) (*Netlist, error) {
 	p := &parser{
 		file:  file,
 		nl:    &Netlist{File: file, Source: src},
-		names: map[string]Pos{}, coreNames: map[string]Pos{}, matNames: map[string]Pos{},
+		names: map[string]Pos{}, coreNames: map[string]Pos{}, matNames: map[string]Pos{}, selNames: map[string]Pos{},
 		nodeSeen: map[string]bool{}, nodePos: map[string]Pos{},
 		portSeen: map[string]bool{}, portNodePos: map[string]Pos{},
 		partKind: map[string]Kind{},
@@ -404,6 +416,14 @@ func (p *parser) line(ln int, raw string) {
 		}
 	case "coupling":
 		p.coupling(ln, fields, attrs)
+	case "select":
+		if p.declare(p.selNames, "select position", fields[0], ln) {
+			a, b := attrs["closed"], attrs["band"]
+			if a != nil && b != nil {
+				p.nl.Selects = append(p.nl.Selects, &Select{Name: fields[0].Text, Closed: a.Words, Lo: b.Lo, Hi: b.Hi,
+					Pos: p.pos(ln, fields[0].Col), CPos: a.ValPos})
+			}
+		}
 	case "audit":
 		p.nl.Audit = append(p.nl.Audit, &Directive{Pos: p.pos(ln, kw.Col), Attrs: attrs, Order: order})
 	default:
@@ -636,6 +656,14 @@ func (p *parser) component(ln int, kind Kind, f []Field, attrs Attrs) {
 		case "value":
 			value = &f[i]
 		}
+	}
+	if len(nodes) == 1 && nodesOK {
+		// a one-node kind (supply, draw) is connected from its node to gnd
+		if nodes[0] == Ground {
+			p.errorf(p.pos(ln, f[1].Col), "a node other than gnd", "%s %s is on gnd (it connects its node to gnd)", kind, f[0].Text)
+			nodesOK = false
+		}
+		nodes = append(nodes, Ground)
 	}
 	valueOK := true
 	var v float64
@@ -932,6 +960,15 @@ func (p *parser) check() {
 		if o.node != Ground && !p.nodeSeen[o.node] {
 			p.errorf(o.pos, "a node of the circuit that a part connects to, or "+Ground,
 				"%s %s names node %q, which no part connects to", o.kind, o.part, o.node)
+		}
+	}
+	for _, sel := range nl.Selects {
+		for _, n := range sel.Closed {
+			if kind, ok := p.partKind[n]; ok && kind != Switch {
+				p.errorf(sel.CPos, "the names of switch statements", "select %s closes %s %s, which is not a switch", sel.Name, kind, n)
+			} else if !ok {
+				p.errorf(sel.CPos, "the names of switch statements", "select %s closes unknown switch %s", sel.Name, Quote(n))
+			}
 		}
 	}
 	for _, k := range nl.Couplings {

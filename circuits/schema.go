@@ -86,6 +86,10 @@ var Keywords = map[string]Keyword{
 		"guide": {Type: TPoints, Units: []string{"T"}, Help: "heating-guide peak flux density at average power, or points such as 15mT@1M,3mT@28M"},
 		"note":  {Type: TText, Help: "a short description"},
 	}, Required: []string{"class"}},
+	"select": {Fields: []string{"name"}, Attrs: map[string]AttrSpec{
+		"closed": {Type: TWords, Help: "the switches closed in this position, such as S1,S4"},
+		"band":   {Type: TRange, Help: "the carrier band of this position, such as 7M:7.3M"},
+	}, Required: []string{"closed", "band"}},
 	"audit": {Attrs: map[string]AttrSpec{
 		"power":        {Type: TPositive, Units: []string{"W"}, Help: "PEP in W"},
 		"mode":         {Type: TWord, Help: "a mode preset such as carrier, data, cw, ssb, am, fm, data-15s or tune"},
@@ -106,5 +110,6 @@ var Keywords = map[string]Keyword{
 		"key-down":     {Type: TText, Help: "time at the mode's average power before the temperature is judged, such as 90s or 5m; steady for steady state"},
 		"tx-swr-max":   {Type: TNumber, Help: "highest SWR the transmitter may see, e.g. 2"},
 		"altitude":     {Type: TNumber, Units: lengthUnit, NeedUnit: true, Help: "altitude above sea level with a unit, e.g. 1500m: air pressure for clearances"},
+		"part-faults":  {Type: TText, Help: "single-part faults: each, or a list such as C9:short,L3:open"},
 	}},
 }

@@ -135,11 +135,18 @@ func Prepare(nl *circuits.Netlist, mats map[string]*Material, prof *Profile) (*S
 	for _, s := range nl.Cores {
 		cores[s.Name] = buildCore(s, set.Materials, usedBy[s.Name], &errs)
 	}
+	switches := 0
 	for _, c := range nl.Components {
 		p := preparePart(c, cores, prof, &errs)
 		p.air = set.Air
 		set.Parts[c.Name] = p
 		set.Order = append(set.Order, c.Name)
+		if c.Kind == circuits.Switch {
+			if switches == 0 {
+				set.Findings = append(set.Findings, Finding{Pos: c.Pos, Severity: "note", Text: SwitchNote})
+			}
+			switches++
+		}
 	}
 	if len(errs) > 0 {
 		errs.Sort()
@@ -179,6 +186,8 @@ func preparePart(c *circuits.Component, cores map[string]*CoreInfo, prof *Profil
 		p.Class = ClassBlock
 	case circuits.Connector:
 		p.Class = ClassConnector
+	case circuits.Switch:
+		p.Class = ClassSwitch
 	}
 	p.prepareGap(c, errs)
 	return p
@@ -216,6 +225,9 @@ func (p *Part) prepareGap(c *circuits.Component, errs *circuits.ErrorList) {
 	}
 	p.Gap = &Clearance{Gap: g.Num, Medium: med}
 }
+
+// SwitchNote is said once for a netlist with relays or switches.
+const SwitchNote = "relay and switch contacts: a DC current rating overstates what a contact carries at RF (skin effect in the contacts, heating of the flexible leads), so rate irms= by RF current; and never switch while transmitting: hot switching burns contacts (common practice)"
 
 func (p *Part) warn(sev, format string, args ...any) {
 	p.Findings = append(p.Findings, Finding{Part: p.Name, Pos: p.Pos, Severity: sev, Text: fmt.Sprintf(format, args...)})
@@ -347,6 +359,9 @@ func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 		if p.Wire > 0 {
 			out = append(out, p.densityLimit(f, text))
 		}
+		if p.vpk != nil {
+			given(Vpk, p.vpk, p.Class) // a choke's insulation
+		}
 	case circuits.Resistor:
 		given(Pdiss, p.pmax, p.Class)
 		given(Vpk, p.vpk, p.Class)
@@ -363,6 +378,13 @@ func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 	case circuits.Connector:
 		given(Vpk, p.vpk, p.Class)
 		given(Irms, p.irms, p.Class)
+	case circuits.Switch:
+		// RF current through the closed contact and its leads; peak
+		// voltage across the open contact. Both are judged in every
+		// state: a closed contact sees little voltage, an open one
+		// little current.
+		out = append(out, p.currentLimit(f, false, text))
+		given(Vpk, p.vpk, p.Class)
 	}
 	if p.Gap != nil {
 		out = append(out, p.arcLimit(text))
@@ -439,6 +461,15 @@ func (p *Part) arcLimit(text bool) Limit {
 			per, what, mmText(g.Gap), circuits.FormatSI(arc, "V"))
 	}
 	return l
+}
+
+// WindingRdc is the DC resistance of the winding from its wire: annealed
+// copper at 20 °C (IEC 60028) over WireLength; 0 when unknown.
+func (p *Part) WindingRdc() float64 {
+	if p.WireLength <= 0 || p.Wire <= 0 {
+		return 0
+	}
+	return Rho20Copper * p.WireLength / (math.Pi * p.Wire * p.Wire / 4)
 }
 
 func attrName(q Quantity) string {
@@ -595,8 +626,7 @@ func (p *Part) CopperR(f float64) float64 {
 	if p.WireLength <= 0 || p.Wire <= 0 {
 		return 0
 	}
-	rdc := Rho20Copper * p.WireLength / (math.Pi * p.Wire * p.Wire / 4)
-	return rdc * SkinFactor(f, p.Wire, Rho20Copper)
+	return p.WindingRdc() * SkinFactor(f, p.Wire, Rho20Copper)
 }
 
 // CopperQ is the highest Q the winding's copper allows at f, ωL/CopperR;

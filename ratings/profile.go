@@ -25,6 +25,7 @@ const (
 	ClassConnector    = "connector"
 	ClassGapAir       = "gap-air"   // an air clearance, against the voltage that would arc
 	ClassGapBoard     = "gap-board" // a board-surface clearance, against a working-voltage guide
+	ClassSwitch       = "switch"    // relay and switch contacts
 )
 
 // classQuantities says which quantities each derating class may carry a
@@ -34,7 +35,7 @@ var classQuantities = map[string][]Quantity{
 	ClassCapacitor2:   {Vpk, Vrms, Irms, Pdiss},
 	ClassCapacitorAir: {Vpk, Vrms, Irms, Pdiss},
 	ClassCapacitor:    {Vpk, Vrms, Irms, Pdiss},
-	ClassInductor:     {Irms, Jrms},
+	ClassInductor:     {Irms, Jrms, Vpk},
 	ClassCore:         {Bpk},
 	ClassResistor:     {Pdiss, Vpk},
 	ClassLine:         {Vpk, Pm},
@@ -42,6 +43,7 @@ var classQuantities = map[string][]Quantity{
 	ClassConnector:    {Vpk, Irms},
 	ClassGapAir:       {Arc},
 	ClassGapBoard:     {Arc},
+	ClassSwitch:       {Irms, Vpk},
 }
 
 // Profile is a set of derating factors: the share of each absolute rating a
@@ -80,7 +82,7 @@ var builtinProfiles = map[string]*Profile{
 		ClassCapacitor2:   {Vpk: 0.5, Vrms: 0.5, Irms: 0.6, Pdiss: 0.5},
 		ClassCapacitorAir: {Vpk: 0.7, Vrms: 0.7, Irms: 0.8, Pdiss: 0.7},
 		ClassCapacitor:    {Vpk: 0.5, Vrms: 0.5, Irms: 0.6, Pdiss: 0.5},
-		ClassInductor:     {Irms: 0.8, Jrms: 0.8},
+		ClassInductor:     {Irms: 0.8, Jrms: 0.8, Vpk: 0.8},
 		ClassCore:         {Bpk: 0.8},
 		ClassResistor:     {Pdiss: 0.5, Vpk: 0.8},
 		ClassLine:         {Vpk: 0.6, Pm: 0.8},
@@ -88,13 +90,14 @@ var builtinProfiles = map[string]*Profile{
 		ClassConnector:    {Vpk: 0.8, Irms: 0.8},
 		ClassGapAir:       {Arc: 0.7},
 		ClassGapBoard:     {Arc: 1},
+		ClassSwitch:       {Irms: 0.7, Vpk: 0.6},
 	}},
 	"strict": {Name: "strict", TempMargin: 25, Factors: map[string]map[Quantity]float64{
 		ClassCapacitor1:   {Vpk: 0.5, Vrms: 0.5, Irms: 0.6, Pdiss: 0.5},
 		ClassCapacitor2:   {Vpk: 0.4, Vrms: 0.4, Irms: 0.5, Pdiss: 0.4},
 		ClassCapacitorAir: {Vpk: 0.6, Vrms: 0.6, Irms: 0.7, Pdiss: 0.6},
 		ClassCapacitor:    {Vpk: 0.4, Vrms: 0.4, Irms: 0.5, Pdiss: 0.4},
-		ClassInductor:     {Irms: 0.7, Jrms: 0.7},
+		ClassInductor:     {Irms: 0.7, Jrms: 0.7, Vpk: 0.7},
 		ClassCore:         {Bpk: 0.7},
 		ClassResistor:     {Pdiss: 0.4, Vpk: 0.7},
 		ClassLine:         {Vpk: 0.5, Pm: 0.7},
@@ -102,6 +105,7 @@ var builtinProfiles = map[string]*Profile{
 		ClassConnector:    {Vpk: 0.7, Irms: 0.7},
 		ClassGapAir:       {Arc: 0.6},
 		ClassGapBoard:     {Arc: 0.8},
+		ClassSwitch:       {Irms: 0.6, Vpk: 0.5},
 	}},
 }
 
@@ -144,7 +148,7 @@ func (p *Profile) clone() *Profile {
 
 // Classes lists the derating classes in a fixed order.
 func Classes() []string {
-	return []string{ClassCapacitor1, ClassCapacitor2, ClassCapacitorAir, ClassCapacitor, ClassInductor, ClassCore, ClassResistor, ClassLine, ClassBlock, ClassConnector, ClassGapAir, ClassGapBoard}
+	return []string{ClassCapacitor1, ClassCapacitor2, ClassCapacitorAir, ClassCapacitor, ClassInductor, ClassCore, ClassResistor, ClassLine, ClassBlock, ClassConnector, ClassGapAir, ClassGapBoard, ClassSwitch}
 }
 
 // LoadProfile returns a built-in profile by name (standard, strict, none)

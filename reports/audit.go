@@ -102,6 +102,12 @@ func ValueText(k circuits.Kind, v float64) string {
 		return circuits.FormatSI(v, "m") // a line's value is its length
 	case circuits.Resistor:
 		return circuits.FormatSI(v, "Ω")
+	case circuits.Supply:
+		return circuits.FormatSI(v, "V") + " DC"
+	case circuits.Draw:
+		return circuits.FormatSI(v, "A") + " DC"
+	case circuits.Switch:
+		return "contact"
 	}
 	if v == 0 {
 		return ""
@@ -252,6 +258,9 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 			p := FormatPower(s.SafeW)
 			lead := fmt.Sprintf("    %-8s %s%s  ", s.Verdict, strings.Repeat(" ", pw-runeLen(p)), p)
 			line := Headline(s.File)
+			if l := sectionLabel(s); l != "" {
+				line += " [" + l + "]"
+			}
 			if !math.IsInf(s.SafeW, 1) {
 				line += fmt.Sprintf(" (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
 			}
@@ -267,12 +276,19 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 	var hot []string
 	for _, s := range b.Sections {
 		if s.MaxNodeVpk >= cautionV {
-			hot = append(hot, fmt.Sprintf("%s node %s", Headline(s.File), s.MaxNodeAt))
+			hot = append(hot, hotNode(s))
 		}
 	}
 	if len(hot) > 0 {
-		wrapLine(w, width, "  ", "    ", fmt.Sprintf("CAUTION: RF above %s peak at %s — RF burns and arcing; never touch or adjust while transmitting (SAFETY.md)",
-			circuits.FormatSI(cautionV, "V"), strings.Join(hot, ", ")))
+		what := "RF"
+		if DCCaution(b) != "" {
+			what = "RF with DC"
+		}
+		wrapLine(w, width, "  ", "    ", fmt.Sprintf("CAUTION: %s above %s peak at %s — RF burns and arcing; never touch or adjust while transmitting (SAFETY.md)",
+			what, circuits.FormatSI(cautionV, "V"), strings.Join(hot, ", ")))
+	}
+	if dc := DCCaution(b); dc != "" {
+		wrapLine(w, width, "  ", "    ", "CAUTION: "+dc)
 	}
 	return nil
 }
@@ -294,7 +310,7 @@ var shown = []ratings.Quantity{ratings.Irms, ratings.Pdiss, ratings.Bpk, ratings
 
 func writeSectionText(w io.Writer, s *stress.Section, width int) {
 	fmt.Fprintln(w)
-	wrapLine(w, width, "== ", "   ", heading(s.File, s.Title))
+	wrapLine(w, width, "== ", "   ", joinNonEmpty(" — ", heading(s.File, s.Title), sectionLabel(s)))
 	for _, l := range SectionConditions(s) {
 		wrapLine(w, width, "   ", "     ", l)
 	}
@@ -348,11 +364,18 @@ func writeSectionText(w io.Writer, s *stress.Section, width int) {
 		safe += fmt.Sprintf(" (%s %s)", s.LimitPart, QuantityLabel(s.LimitQ))
 	}
 	safe += fmt.Sprintf("; highest node voltage %s peak at %s (%s)", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, s.Case(s.MaxNodeCase).Describe())
+	if s.MaxNodeVdc > 0 {
+		safe += fmt.Sprintf(", %s of it DC", circuits.FormatSI(s.MaxNodeVdc, "V"))
+	}
+	if s.MaxDCV > 0 {
+		safe += fmt.Sprintf("; highest DC %s at %s", circuits.FormatSI(s.MaxDCV, "V"), s.MaxDCAt)
+	}
 	fmt.Fprintln(w)
 	wrapLine(w, width, "   ", "     ", safe)
 	if t := TxText(s); t != "" {
 		wrapLine(w, width, "   ", "     ", t)
 	}
+	writePartFaultsText(w, s, width)
 }
 
 // FormatSWR renders an SWR; a total reflection shows as "≥ 10⁶".
@@ -437,6 +460,49 @@ func mmText(d float64) string {
 		return "—"
 	}
 	return strconv.FormatFloat(d*1e3, 'f', 2, 64) + " mm"
+}
+
+// writePartFaultsText lists, per part, its worst stress under the other
+// parts' faults and which fault caused it, then every fault that takes a
+// part beyond its derated limit.
+func writePartFaultsText(w io.Writer, s *stress.Section, width int) {
+	pf := s.PartFaults
+	if pf == nil {
+		return
+	}
+	fmt.Fprintln(w)
+	wrapLine(w, width, "   ", "     ", fmt.Sprintf("single-part faults: %d (each part failed in turn, judged under the same conditions; the failed part is not judged; not part of the verdict)", len(pf.Runs)))
+	t := newTable("part", "peak V", "caused by", "RMS I", "caused by", "dissip.", "caused by", "worst verdict")
+	t.leftCols = 1
+	t.maxWidth = width
+	for _, p := range pf.Parts {
+		cells := []string{p.Name}
+		for _, q := range []ratings.Quantity{ratings.Vpk, ratings.Irms, ratings.Pdiss} {
+			v, by := "", ""
+			for _, x := range p.Worst {
+				if x.Quantity == q {
+					v, by = FormatQ(q, x.Value), x.Fault.String()
+				}
+			}
+			cells = append(cells, v, by)
+		}
+		cells = append(cells, p.Verdict.String())
+		t.row(cells...)
+	}
+	t.write(w)
+	for _, r := range pf.Runs {
+		if r.Err != "" {
+			wrapLine(w, width, "   ", "     ", fmt.Sprintf("%s: not solved (%s)", r.Fault, r.Err))
+		}
+	}
+	if len(pf.Consequences) == 0 {
+		fmt.Fprintln(w, "\n   no single-part fault takes another part beyond its derated limit")
+		return
+	}
+	fmt.Fprintln(w, "\n   faults that take a part beyond its derated limit:")
+	for _, c := range pf.Consequences {
+		wrapLine(w, width, "   ", "     ", ConsequenceText(c))
+	}
 }
 
 // AllFindings lists the section's findings and then each part's, in

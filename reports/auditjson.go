@@ -82,6 +82,8 @@ type JSONLimit struct {
 // JSONComponent is one part of the audit.
 type JSONComponent struct {
 	File        string      `json:"file"`
+	Position    string      `json:"position,omitempty"`
+	WrongFor    string      `json:"wrong_band_for,omitempty"`
 	Name        string      `json:"name"`
 	Kind        string      `json:"kind"`
 	Value       float64     `json:"value"`
@@ -129,30 +131,36 @@ type JSONLimiting struct {
 
 // JSONSection summarises one netlist.
 type JSONSection struct {
-	File          string       `json:"file"`
-	Title         string       `json:"title"`
-	SHA256        string       `json:"sha256"`
-	AntennaData   string       `json:"antenna_measured,omitempty"`
-	Verdict       string       `json:"verdict"`
-	SafePowerW    *float64     `json:"safe_power_w"`
-	Limiting      JSONLimiting `json:"limiting"`
-	Cases         int          `json:"cases"`
-	PowerW        float64      `json:"power_w"`
-	Mode          string       `json:"mode"`
-	AvgRatio      float64      `json:"avg_ratio"`
-	Drive         string       `json:"drive"`
-	Derate        string       `json:"derate"`
-	AmbientC      float64      `json:"ambient_c"`
-	Faults        []string     `json:"faults"`
-	CarrierAlsoHz []float64    `json:"carrier_also_hz"`
-	BandLoHz      float64      `json:"band_lo_hz"`
-	BandHiHz      float64      `json:"band_hi_hz"`
-	SWR           float64      `json:"swr"`
-	Harmonics     string       `json:"harmonics"`
-	MaxNodeVpk    float64      `json:"max_node_vpk"`
-	AltitudeM     float64      `json:"altitude_m"`
-	AirPressurePa float64      `json:"air_pressure_pa"`
-	ArcCheckV     *float64     `json:"arc_check_1mm_v"`
+	File          string          `json:"file"`
+	Title         string          `json:"title"`
+	SHA256        string          `json:"sha256"`
+	AntennaData   string          `json:"antenna_measured,omitempty"`
+	Verdict       string          `json:"verdict"`
+	SafePowerW    *float64        `json:"safe_power_w"`
+	Limiting      JSONLimiting    `json:"limiting"`
+	Cases         int             `json:"cases"`
+	PowerW        float64         `json:"power_w"`
+	Mode          string          `json:"mode"`
+	AvgRatio      float64         `json:"avg_ratio"`
+	Drive         string          `json:"drive"`
+	Derate        string          `json:"derate"`
+	AmbientC      float64         `json:"ambient_c"`
+	Faults        []string        `json:"faults"`
+	CarrierAlsoHz []float64       `json:"carrier_also_hz"`
+	BandLoHz      float64         `json:"band_lo_hz"`
+	BandHiHz      float64         `json:"band_hi_hz"`
+	SWR           float64         `json:"swr"`
+	Harmonics     string          `json:"harmonics"`
+	MaxNodeVpk    float64         `json:"max_node_vpk"`
+	AltitudeM     float64         `json:"altitude_m"`
+	AirPressurePa float64         `json:"air_pressure_pa"`
+	ArcCheckV     *float64        `json:"arc_check_1mm_v"`
+	MaxNodeVdc    float64         `json:"max_node_vdc"`
+	MaxDCV        float64         `json:"max_dc_v"`
+	MaxDCNode     string          `json:"max_dc_node,omitempty"`
+	Position      string          `json:"position,omitempty"`
+	WrongFor      string          `json:"wrong_band_for,omitempty"`
+	PartFaults    *JSONPartFaults `json:"part_faults,omitempty"`
 	// what the transmitter sees, worst over every case
 	TxSWRWorst *float64       `json:"tx_swr_worst"`
 	TxZinWorst *JSONZ         `json:"tx_zin_worst"`
@@ -200,7 +208,12 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 			Faults: append([]string{}, s.Conditions.Faults...), CarrierAlsoHz: append([]float64{}, s.Conditions.CarrierAlso...),
 			BandLoHz: s.Conditions.BandLo, BandHiHz: s.Conditions.BandHi, SWR: s.Conditions.SWR,
 			Harmonics: s.Conditions.Harmonics, MaxNodeVpk: s.MaxNodeVpk,
-			AltitudeM: s.Conditions.Altitude, AirPressurePa: s.AirPressure, ArcCheckV: jsonNum(s.ArcCheckV)}
+			AltitudeM: s.Conditions.Altitude, AirPressurePa: s.AirPressure, ArcCheckV: jsonNum(s.ArcCheckV),
+			MaxNodeVdc: s.MaxNodeVdc, MaxDCV: s.MaxDCV, MaxDCNode: s.MaxDCAt, Position: s.Position}
+		if s.Wrong {
+			js.WrongFor = s.For
+		}
+		js.PartFaults = partFaultsJSON(s)
 		for _, f := range s.Findings {
 			js.Findings = append(js.Findings, f.Part+": "+f.Text)
 		}
@@ -220,7 +233,7 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 		}
 		doc.Sections = append(doc.Sections, js)
 		for _, p := range s.Parts {
-			jc := JSONComponent{File: s.File, Name: p.Name, Kind: string(p.Kind), Value: p.Value, Verdict: p.Verdict.String(),
+			jc := JSONComponent{File: s.File, Position: js.Position, WrongFor: js.WrongFor, Name: p.Name, Kind: string(p.Kind), Value: p.Value, Verdict: p.Verdict.String(),
 				Utilization: jsonNum(p.Util), SafePowerW: jsonNum(p.SafeW), Limits: []JSONLimit{}, Binding: string(p.Binding)}
 			if p.Has(ratings.Bpk) || p.Has(ratings.Temp) {
 				jc.CoreBinding = CoreBinding(p)

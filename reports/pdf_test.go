@@ -93,29 +93,28 @@ func demoDoc(t *testing.T, srcs []netSrc, trials int) *ReportDoc {
 		if err != nil {
 			t.Fatalf("%s: %v", ns.name, err)
 		}
-		eng, err := stress.NewEngine(c, rs, cond)
+		ss, engs, err := stress.AuditNetlist(c, rs, cond, false)
 		if err != nil {
-			t.Fatal(err)
+			t.Fatalf("%s: %v", ns.name, err)
 		}
-		sec, err := eng.Audit()
-		if err != nil {
-			t.Fatal(err)
-		}
-		if trials > 0 {
-			tol, err := eng.Tolerance(stress.TolOptions{Trials: trials, Seed: 7, Dist: "normal", Workers: 2})
+		for i, sec := range ss {
+			eng := engs[i]
+			if trials > 0 {
+				tol, err := eng.Tolerance(stress.TolOptions{Trials: trials, Seed: 7, Dist: "normal", Workers: 2})
+				if err != nil {
+					t.Fatal(err)
+				}
+				sec.Tolerance = tol
+			}
+			sec.Harmonics = eng.HarmonicLines()
+			secs = append(secs, sec)
+			use, err := eng.BandUse(11)
 			if err != nil {
 				t.Fatal(err)
 			}
-			sec.Tolerance = tol
+			doc.Filters = append(doc.Filters, FilterPlot{Sweep: eng.Sweep(200), BandLo: eng.Cond.BandLo, BandHi: eng.Cond.BandHi,
+				Harmonics: sec.Harmonics, Extra: eng.Cond.CarrierAlso, Use: use, Loads: eng.LoadSet(), R0: real(eng.C.Zin)})
 		}
-		sec.Harmonics = eng.HarmonicLines()
-		secs = append(secs, sec)
-		use, err := eng.BandUse(11)
-		if err != nil {
-			t.Fatal(err)
-		}
-		doc.Filters = append(doc.Filters, FilterPlot{Sweep: eng.Sweep(200), BandLo: cond.BandLo, BandHi: cond.BandHi,
-			Harmonics: sec.Harmonics, Extra: cond.CarrierAlso, Use: use, Loads: eng.LoadSet(), R0: real(c.Zin)})
 	}
 	doc.Bank = stress.NewBank(secs)
 	return doc

@@ -110,6 +110,11 @@ func (p *pdfw) caution() {
 		"Never touch or adjust anything in the RF path while transmitting. Key up first at low power into a dummy load, " +
 		"and raise power in steps. The figures in this report are engineering estimates from a circuit model, " +
 		"not a guarantee of safety. Follow local codes and licensed practice. See SAFETY.md."
+	title := "CAUTION — high RF voltage"
+	if dc := DCCaution(p.doc.Bank); dc != "" {
+		body = dc + " " + body
+		title = "CAUTION — high RF voltage and DC"
+	}
 	// the box must stay on page 1: name a few hot files, count the rest
 	const maxHot = 4
 	var hot []string
@@ -123,6 +128,9 @@ func (p *pdfw) caution() {
 			continue
 		}
 		h := fmt.Sprintf("%s peak at node %s of %s", circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, Headline(s.File))
+		if s.MaxNodeVdc > 0 {
+			h += fmt.Sprintf(", %s of it DC", circuits.FormatSI(s.MaxNodeVdc, "V"))
+		}
 		if c := caseText(s, s.MaxNodeCase); c != "" {
 			h += " (" + c + ")"
 		}
@@ -160,7 +168,7 @@ func (p *pdfw) caution() {
 	p.warningMark(marginL+4, y+4, 12)
 	p.font("B", 11)
 	p.text(colCautionB)
-	p.cellAt(marginL+inset, y+3, tw, 5.5, "CAUTION — high RF voltage", "L")
+	p.cellAt(marginL+inset, y+3, tw, 5.5, title, "L")
 	f.SetY(y + 8.5)
 	p.text(colInk)
 	if hotText != "" {
@@ -214,7 +222,7 @@ func (p *pdfw) audited() {
 			lim = s.LimitPart + " " + QuantityLabel(s.LimitQ)
 		}
 		rows = append(rows, trow{
-			cells:      []tcell{{s: Headline(s.File), bold: true}, tc(Headline(s.Title)), tv(s.Verdict), tc(FormatPower(s.SafeW)), tc(lim)},
+			cells:      []tcell{{s: Headline(s.File), bold: true}, tc(Headline(joinNonEmpty(" — ", s.Title, sectionLabel(s)))), tv(s.Verdict), tc(FormatPower(s.SafeW)), tc(lim)},
 			detail:     []string{"SHA-256 " + s.SHA256},
 			detailMono: true,
 		})

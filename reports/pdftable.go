@@ -468,7 +468,7 @@ func share(x float64) string {
 // sectionPages is a netlist's response plot, part table, findings and
 // tolerance spread.
 func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
-	title := heading(s.File, s.Title)
+	title := joinNonEmpty(" — ", heading(s.File, s.Title), sectionLabel(s))
 	p.newPage(title)
 	p.text(colMuted)
 	for _, l := range SectionConditions(s) {
@@ -516,6 +516,7 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 		}
 	}
 	p.findings(s)
+	p.partFaults(s)
 	p.tolerance(s)
 }
 
@@ -559,4 +560,38 @@ func (p *pdfw) coreTable(s *stress.Section) {
 	p.f.Ln(1)
 	titles := []string{"part", "saturation (PEP)", "use", "heating guide (avg.)", "use", "temperature", "use", "τ, judged", "binds"}
 	p.table(widths(titles, []float64{9, 20, 8, 20, 13, 18, 8, 17, 26}, "LRRRRRRLL"), rows, 7.5)
+}
+
+// partFaults lists the single-part fault analysis: per part its worst
+// stress under the others' faults and the fault that caused it, and the
+// faults that take a part beyond its derated limit.
+func (p *pdfw) partFaults(s *stress.Section) {
+	pf := s.PartFaults
+	if pf == nil {
+		return
+	}
+	intro := fmt.Sprintf("%d single-part faults: each part shorted and opened in turn, every other part judged under the same conditions "+
+		"(the failed part is not judged). These consequences are reported; they are not part of the verdict.", len(pf.Runs))
+	p.sub("Single-part faults", p.paraHeight(8, intro)+24)
+	p.para(8, intro)
+	for _, pw := range pf.Parts {
+		var parts []string
+		for _, x := range pw.Worst {
+			if x.Quantity == ratings.Vpk || x.Quantity == ratings.Irms || x.Quantity == ratings.Pdiss {
+				parts = append(parts, fmt.Sprintf("%s %s (%s)", QuantityLabel(x.Quantity), FormatQ(x.Quantity, x.Value), x.Fault))
+			}
+		}
+		p.para(8, fmt.Sprintf("%s — worst %s; %s", pw.Name, pw.Verdict, strings.Join(parts, "; ")))
+	}
+	if len(pf.Consequences) == 0 {
+		p.para(8.5, "No single-part fault takes another part beyond its derated limit.")
+		return
+	}
+	p.font("B", 9)
+	p.room(5)
+	p.f.SetX(marginL)
+	p.multi(bodyW, 4.4, "Faults that take a part beyond its derated limit:")
+	for _, c := range pf.Consequences {
+		p.para(8.5, ConsequenceText(c))
+	}
 }

@@ -148,6 +148,10 @@ type Engine struct {
 	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
 	listed       []Case         // retuned audits: the cases of every load, listed (retune.go)
 	limBuf       []ratings.Limit
+	rdc          []float64 // per part: winding DC resistance from the ratings layer (0: none known)
+	// faulted is set for runs on a circuit with a part failed: a draw cut
+	// off from its supply is then dropped, not an input error
+	faulted bool
 }
 
 // NewEngine prepares the case layout for c under cond.
@@ -207,6 +211,12 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 	}
 	for _, f := range e.carriers {
 		e.lims = append(e.lims, e.limitsAt(f))
+	}
+	e.rdc = make([]float64, len(c.Elements))
+	for i, rp := range e.rparts {
+		if rp != nil {
+			e.rdc[i] = rp.WindingRdc()
+		}
 	}
 	return e, nil
 }
@@ -303,6 +313,10 @@ type accum struct {
 	// an inductor with self-capacitance: the largest carrier current in
 	// its winding and at its terminals, over the cases evaluated
 	iwMax, itMax float64
+	// the DC share of each stress at its utilCase (|Vdc|, Vdc, Idc, Pdc,
+	// Bdc, Jdc), and of pavg: safe power scales only the RF share
+	utilDC [nQ]float64
+	pdc    float64
 }
 
 func (a *accum) reset() {
@@ -348,6 +362,10 @@ type workspace struct {
 	circle []circuits.Load
 	hz     []complex128
 	// limits per part at the current carrier
+	dcq [nQ]float64 // the DC share of each stress evalPart last computed
+	// the DC solution: per part V, I, flux linkage and heat; per node V
+	dcV, dcI, dcL, dcP []float64
+	dcNode             []float64
 }
 
 // partLimits caches one part's limits at the current carrier.
@@ -358,13 +376,16 @@ type partLimits struct {
 	advice    [nQ]bool    // a guide, not a rating
 	copperR   float64
 	areaRatio []float64 // per harmonic: wire conducting area at the carrier over that at the harmonic
+	dcArea    float64   // wire conducting area at the carrier over the whole section (DC)
 }
 
 func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 	n := len(c.Elements)
 	w := &workspace{c: c, sw: circuits.NewSplitWork(c), carr: circuits.NewSplit(c),
 		circle: make([]circuits.Load, len(e.circle)), hz: make([]complex128, len(e.levels)),
-		lim: make([]partLimits, n), acc: make([]accum, n), hEMF: make([]float64, len(e.levels))}
+		lim: make([]partLimits, n), acc: make([]accum, n), hEMF: make([]float64, len(e.levels)),
+		dcV: make([]float64, n), dcI: make([]float64, n), dcL: make([]float64, n), dcP: make([]float64, n),
+		dcNode: make([]float64, len(c.Nodes))}
 	for range e.levels {
 		w.harm = append(w.harm, circuits.NewSplit(c))
 	}
@@ -394,6 +415,35 @@ type nodeWorst struct {
 	vpk  float64
 	node int
 	at   int
+	dc   float64 // the DC share of vpk
+	// the highest DC node voltage and its node (−1: none)
+	dcMax  float64
+	dcNode int
+}
+
+// solveDC fills the workspace's DC figures: the network at f = 0 with
+// windings at their stated rdc= or their wire's resistance.
+func (e *Engine) solveDC(w *workspace) error {
+	dc, err := w.c.SolveDC(e.rdc)
+	if err != nil {
+		return err
+	}
+	if !e.faulted {
+		if err := dc.UnfedError(); err != nil {
+			return err
+		}
+	}
+	for i, ps := range dc.Parts {
+		w.dcV[i], w.dcI[i], w.dcL[i] = real(ps.V), real(ps.I), real(ps.Lambda)
+		w.dcP[i] = math.Max(dc.P[i], 0)
+		if sp := circuits.SpecOf(w.c.Elements[i].Kind); sp != nil && sp.Source {
+			// a source's power is the supply's output or the valve's
+			// input, not heat in the network
+			w.dcP[i] = 0
+		}
+	}
+	copy(w.dcNode, dc.Nodes)
+	return nil
 }
 
 // run audits the workspace's circuit over every case into w.acc.
@@ -406,7 +456,15 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 	w.resetTx()
 	clear(w.nodePk)
 	clear(w.nodePkCase)
-	var nw nodeWorst
+	nw := nodeWorst{dcNode: -1}
+	if err := e.solveDC(w); err != nil {
+		return nw, err
+	}
+	for ni, v := range w.dcNode {
+		if math.Abs(v) > nw.dcMax {
+			nw.dcMax, nw.dcNode = math.Abs(v), ni
+		}
+	}
 	pep := e.Cond.PowerW
 	emf := c.EMFForPower(pep)
 	for i, l := range e.levels {
@@ -512,19 +570,20 @@ func (e *Engine) evalNodes(w *workspace, ci, cls int, alpha complex128, scale, k
 // evalNode keeps node ni's peak voltage at one case if it is the worst.
 func (e *Engine) evalNode(w *workspace, ni, ci, cls int, alpha complex128, scale, k float64, nw *nodeWorst) {
 	s := w.carr
-	v := math.Sqrt2*(mag(s.Node[0][ni]+alpha*s.Node[1][ni])*scale+k*w.nodeH[cls][ni]) + e.nodeDC(ni)
+	dc := e.nodeDC(w, ni)
+	v := math.Sqrt2*(mag(s.Node[0][ni]+alpha*s.Node[1][ni])*scale+k*w.nodeH[cls][ni]) + dc
 	if v > nw.vpk {
-		nw.vpk, nw.node, nw.at = v, ni, ci
+		nw.vpk, nw.node, nw.at, nw.dc = v, ni, ci, dc
 	}
 	if v > w.nodePk[ni] {
 		w.nodePk[ni], w.nodePkCase[ni] = v, ci
 	}
 }
 
-// nodeDC is the DC voltage of node ni, added to its RF peak: the hook for
-// the DC layer (a supply through an RF choke puts its voltage on the tank
-// and on every clearance to ground). 0 until DC is modelled.
-func (e *Engine) nodeDC(ni int) float64 { return 0 }
+// nodeDC is the DC voltage of node ni (its magnitude), added to its RF
+// peak: a supply through an RF choke puts its voltage on the tank and on
+// every clearance to ground.
+func (e *Engine) nodeDC(w *workspace, ni int) float64 { return math.Abs(w.dcNode[ni]) }
 
 // evalPart computes part i's stresses at one case and keeps the worst.
 // It allocates nothing: this is the inner loop of every audit and trial.
@@ -556,24 +615,34 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	avg := e.Cond.AvgRatio
 	var q [nQ]float64
 	var has [nQ]bool
-	q[qVpk] = math.Sqrt2 * (v + k*w.pkV[cls][i])
-	q[qVrms] = math.Sqrt(v*v + k*k*w.sqV[cls][i])
-	irms := math.Sqrt((cur*cur + k*k*w.sqI[cls][i]) * avg)
-	q[qIrms] = irms
-	q[qPdiss] = (s.R[i]*cur*cur + k*k*w.sumP[cls][i]) * avg
+	dcq := &w.dcq
+	// DC adds to RF: peaks add, RMS values add in squares, heat adds. The
+	// DC current flows whether keyed or not, so avg does not scale it.
+	vdc, idc, pdc := w.dcV[i], w.dcI[i], w.dcP[i]
+	q[qVpk] = math.Abs(vdc) + math.Sqrt2*(v+k*w.pkV[cls][i])
+	q[qVrms] = math.Sqrt(vdc*vdc + v*v + k*k*w.sqV[cls][i])
+	irf2 := (cur*cur + k*k*w.sqI[cls][i]) * avg
+	q[qIrms] = math.Sqrt(idc*idc + irf2)
+	q[qPdiss] = (s.R[i]*cur*cur+k*k*w.sumP[cls][i])*avg + pdc
+	*dcq = [nQ]float64{}
+	dcq[qVpk], dcq[qVrms], dcq[qIrms], dcq[qPdiss] = math.Abs(vdc), math.Abs(vdc), math.Abs(idc), pdc
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss] = true, true, true, true
 	var heat ratings.Heat
 	if rp := e.rparts[i]; rp != nil {
 		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
 			lam := mag(s.L[0][i]+alpha*s.L[1][i]) * scale
-			q[qBpk] = rp.FluxPeak(math.Sqrt2 * (lam + k*w.pkL[cls][i]))
-			// the heating guide looks at the flux of the average power
-			q[qBavg] = q[qBpk] * math.Sqrt(avg)
+			rf := rp.FluxPeak(math.Sqrt2 * (lam + k*w.pkL[cls][i]))
+			// the DC bias flux L·Idc/(N·Ae) adds to the peak judged
+			// against saturation; the heating guide looks at the RF
+			// swing of the average power (core loss follows the swing)
+			dcq[qBpk] = rp.FluxPeak(math.Abs(w.dcL[i]))
+			q[qBpk] = dcq[qBpk] + rf
+			q[qBavg] = rf * math.Sqrt(avg)
 			has[qBpk], has[qBavg] = true, true
 		}
 		// the winding's copper loss is a floor under the loss from Q
 		if cu := w.lim[i].copperR; cu > 0 {
-			if floor := irms * irms * cu; floor > q[qPdiss] {
+			if floor := irf2*cu + pdc; floor > q[qPdiss] {
 				q[qPdiss] = floor
 			}
 		}
@@ -583,9 +652,12 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 			has[qTemp] = true
 		}
 		// harmonic currents crowd into a thinner skin: weight each by the
-		// ratio of conducting areas, so the density heats as the sum does
-		if j := rp.CurrentDensity(math.Sqrt((cur*cur+k*k*w.sqIJ[cls][i])*avg), f); j > 0 {
+		// ratio of conducting areas, so the density heats as the sum does;
+		// DC spreads over the whole wire
+		jdc2 := idc * idc * w.lim[i].dcArea
+		if j := rp.CurrentDensity(math.Sqrt((cur*cur+k*k*w.sqIJ[cls][i])*avg+jdc2), f); j > 0 {
 			q[qJrms] = j
+			dcq[qJrms] = rp.CurrentDensity(math.Sqrt(jdc2), f)
 			has[qJrms] = true
 		}
 	}
@@ -612,7 +684,7 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 		if q[qi] > a.val[qi] {
 			a.val[qi], a.valCase[qi] = q[qi], ci
 			if qi == qTemp {
-				a.heat, a.pavg = w.heat, q[qPdiss]
+				a.heat, a.pavg, a.pdc = w.heat, q[qPdiss], w.dcq[qPdiss]
 			}
 		}
 		if a.kindCase[kind][qi] < 0 || q[qi] > a.kind[kind][qi] {
@@ -620,10 +692,11 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 		}
 		if d := lim.derated[qi]; d > 0 {
 			if u := e.utilOf(qi, q[qi], d); u > a.util[qi] {
-				a.util[qi], a.utilCase[qi] = u, ci
+				a.util[qi], a.utilCase[qi], a.utilDC[qi] = u, ci, w.dcq[qi]
 			}
 		}
 	}
+	w.dcq = [nQ]float64{} // lines set none: they carry no DC share
 }
 
 // circleCases finds each part's worst loads on the SWR circle exactly,
@@ -896,6 +969,9 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 			}
 		}
 		pl.copperR = rp.CopperR(f)
+		if rp.Wire > 0 {
+			pl.dcArea = ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper) / (math.Pi * rp.Wire * rp.Wire / 4)
+		}
 		for h := range e.levels {
 			if rp.Wire > 0 {
 				a0 := ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper)

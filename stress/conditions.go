@@ -139,6 +139,8 @@ type Conditions struct {
 	// Altitude is the station's height above sea level, m: the air
 	// pressure for clearances (ISO 2533).
 	Altitude float64
+	// PartFaults: "" (none), "each", or a list such as C9:short,L3:open
+	PartFaults string
 }
 
 // HeatTime is the key-down time the temperature is judged at (s; +Inf
@@ -477,6 +479,14 @@ func (c *Conditions) apply(s Setting, flagSeen map[string]bool) error {
 			return settingError(s, "an ambient temperature from −60 to 200 °C", "ambient out of range")
 		}
 		c.Ambient = x
+	case "part-faults":
+		if _, _, err := ParsePartFaults(v); err != nil {
+			return settingError(s, "each, none, or parts with short or open such as C9:short,L3:open", "%v", err)
+		}
+		c.PartFaults = v
+		if strings.EqualFold(v, "none") {
+			c.PartFaults = ""
+		}
 	default:
 		return settingError(s, "a known audit setting", "unknown setting %s", circuits.Quote(s.Key))
 	}

@@ -30,6 +30,10 @@ func (e *Engine) Audit() (*Section, error) {
 	if len(e.C.Nodes) > 0 {
 		s.MaxNodeAt = e.C.Nodes[nw.node]
 	}
+	s.MaxNodeVdc = nw.dc
+	if nw.dcNode >= 0 {
+		s.MaxDCV, s.MaxDCAt = nw.dcMax, e.C.Nodes[nw.dcNode]
+	}
 	if e.R != nil {
 		s.Findings = e.R.Findings
 		s.Profile = e.R.Profile
@@ -112,7 +116,7 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 			st.Limit = lim
 			at := e.stressAt(q, st.Util, lim.Derated)
 			st.Verdict = ratings.Judge(at, lim)
-			st.SafeW = e.safePower(rp, qi, st.Util, a.pavg)
+			st.SafeW = e.safePower(rp, qi, st.Util, a.pavg, a.utilDC[qi], a.pdc, lim.Derated)
 		}
 		if st.Verdict != ratings.OK {
 			factor := st.Limit.Factor
@@ -225,10 +229,46 @@ func limitFor(rp *ratings.Part, q ratings.Quantity, f float64) (ratings.Limit, b
 // voltages, currents and flux grow with √P, dissipation with P; the
 // temperature rise follows the thermal model (Part.Heating) of the
 // dissipation, which grows with P, so a bisection finds it.
-func (e *Engine) safePower(rp *ratings.Part, qi int, util, pavg float64) float64 {
+//
+// A DC share dc of the stress (and pdc of pavg) does not grow with the
+// drive: only the RF share scales, combined as the stress is (peaks add,
+// RMS values add in squares, heat adds). Where the DC alone reaches the
+// derated limit no drive is safe (0). With no DC this is the plain rule.
+func (e *Engine) safePower(rp *ratings.Part, qi int, util, pavg, dc, pdc, derated float64) float64 {
 	pep := e.Cond.PowerW
 	if util <= 0 {
 		return math.Inf(1)
+	}
+	if qi != qTemp && dc > 0 {
+		at := util * derated
+		switch qi {
+		case qVrms, qIrms, qJrms:
+			rf2 := at*at - dc*dc
+			if derated <= dc {
+				return 0
+			}
+			if rf2 <= 0 {
+				return math.Inf(1)
+			}
+			return pep * (derated*derated - dc*dc) / rf2
+		case qPdiss, qPm:
+			if derated <= dc {
+				return 0
+			}
+			if at-dc <= 0 {
+				return math.Inf(1)
+			}
+			return pep * (derated - dc) / (at - dc)
+		}
+		// peaks: Vpk, Bpk
+		if derated <= dc {
+			return 0
+		}
+		if at-dc <= 0 {
+			return math.Inf(1)
+		}
+		r := (derated - dc) / (at - dc)
+		return pep * r * r
 	}
 	switch qi {
 	case qPdiss, qPm:
@@ -237,14 +277,22 @@ func (e *Engine) safePower(rp *ratings.Part, qi int, util, pavg float64) float64
 		if rp == nil || !(pavg > 0) {
 			return math.Inf(1)
 		}
-		rise := rp.Heating(pavg, e.heatT, e.Cond.Duty).Rise
+		prf := pavg - pdc // the share that grows with drive
+		heat := func(s float64) float64 { return rp.Heating(pdc+s*prf, e.heatT, e.Cond.Duty).Rise }
+		rise := heat(1)
 		if rise <= 0 {
 			return math.Inf(1)
 		}
 		allowed := rise / util
-		// rise(s·pavg) = allowed; the rise grows with s
+		if heat(0) >= allowed {
+			return 0 // the DC heat alone reaches the limit
+		}
+		if prf <= 0 {
+			return math.Inf(1)
+		}
+		// rise(pdc + s·prf) = allowed; the rise grows with s
 		lo, hi := 0.0, 1.0
-		for rp.Heating(hi*pavg, e.heatT, e.Cond.Duty).Rise < allowed {
+		for heat(hi) < allowed {
 			lo, hi = hi, hi*2
 			if hi > 1e12 {
 				return math.Inf(1)
@@ -252,7 +300,7 @@ func (e *Engine) safePower(rp *ratings.Part, qi int, util, pavg float64) float64
 		}
 		for n := 0; n < 200 && hi-lo > 1e-13*hi; n++ {
 			mid := (lo + hi) / 2
-			if rp.Heating(mid*pavg, e.heatT, e.Cond.Duty).Rise < allowed {
+			if heat(mid) < allowed {
 				lo = mid
 			} else {
 				hi = mid
@@ -394,7 +442,19 @@ type Section struct {
 	MaxNodeVpk      float64 // largest node-to-ground peak voltage
 	MaxNodeAt       string  // node name
 	MaxNodeCase     int
-	Findings        []ratings.Finding
+	MaxNodeVdc      float64 // the DC share of MaxNodeVpk
+	MaxDCV          float64 // highest DC node voltage (0: no DC)
+	MaxDCAt         string
+	// Position names the select position audited ("" without select
+	// lines); Wrong is set when that position is audited at another
+	// position's carriers (the fault "wrong band selected"), which For
+	// names.
+	Position string
+	Wrong    bool
+	For      string
+	// PartFaults is the single-part fault analysis, when asked for.
+	PartFaults *PartFaults
+	Findings   []ratings.Finding
 	// Harmonics is left empty by Audit: only the PDF shows it, and the
 	// caller that writes one fills it from Engine.HarmonicLines.
 	Harmonics []HarmonicLine

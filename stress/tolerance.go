@@ -248,7 +248,7 @@ func (e *Engine) trialSafe(w *workspace) float64 {
 			if d <= 0 || a.util[q] <= 0 || w.lim[i].advice[q] {
 				continue
 			}
-			p := e.safePower(e.rparts[i], q, a.util[q], a.pavg)
+			p := e.safePower(e.rparts[i], q, a.util[q], a.pavg, a.utilDC[q], a.pdc, d)
 			if p < best {
 				best = p
 			}

@@ -40,6 +40,7 @@ var conditionFlags = []struct{ name, def, help string }{
 	{"ambient", "", "ambient temperature in `°C` (default 25)"},
 	{"tx-swr-max", "", "highest `SWR` the transmitter may see at its port (transmitter protection; default: shown, not judged)"},
 	{"altitude", "", "station `altitude` above sea level with a unit, e.g. 1500m: air pressure for clearances (default sea level)"},
+	{"part-faults", "", "single-part `faults`: each (every part shorted, then opened), or a list such as C9:short,L3:open; reported, not part of the verdict"},
 }
 
 func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
@@ -196,19 +197,32 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 			engines = append(engines, sec.Engine)
 			continue
 		}
-		sec, err := auditWithProgress(eng, tol.quiet, stderr)
-		if err != nil {
-			return exitUsage, usagef("%s: %v", circuits.Escape(job.name), err)
-		}
-		if tol.trials != 0 {
-			tr, err := runTolerance(eng, sec, tol, stderr)
+		secs, engs := []*stress.Section(nil), []*stress.Engine(nil)
+		if len(job.c.NL.Selects) > 0 || job.cond.PartFaults != "" {
+			// select positions and single-part faults: several audits
+			var err error
+			secs, engs, err = stress.AuditNetlist(job.c, job.rs, job.cond, *allowUnrated)
 			if err != nil {
-				return exitUsage, err
+				return exitUsage, usagef("%s: %v", circuits.Escape(job.name), err)
 			}
-			sec.Tolerance = tr
+		} else {
+			sec, err := auditWithProgress(eng, tol.quiet, stderr)
+			if err != nil {
+				return exitUsage, usagef("%s: %v", circuits.Escape(job.name), err)
+			}
+			secs, engs = []*stress.Section{sec}, []*stress.Engine{eng}
 		}
-		sections = append(sections, sec)
-		engines = append(engines, eng)
+		for i, sec := range secs {
+			if tol.trials != 0 {
+				tr, err := runTolerance(engs[i], sec, tol, stderr)
+				if err != nil {
+					return exitUsage, err
+				}
+				sec.Tolerance = tr
+			}
+			sections = append(sections, sec)
+			engines = append(engines, engs[i])
+		}
 	}
 	if *retune && retuned == 0 {
 		return exitUsage, usagef("--retune: no file has a variable part (give a capacitor or inductor range=lo:hi)")
@@ -252,9 +266,16 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	} else {
 		for _, s := range bank.Sections {
 			if s.MaxNodeVpk >= *caution {
-				fmt.Fprintf(stderr, "rfstress: CAUTION: %s peak RF at %s node %s; never touch or adjust while transmitting (SAFETY.md)\n",
-					circuits.FormatSI(s.MaxNodeVpk, "V"), circuits.Escape(s.File), s.MaxNodeAt)
+				dc := ""
+				if s.MaxNodeVdc > 0 {
+					dc = fmt.Sprintf(" (%s of it DC)", circuits.FormatSI(s.MaxNodeVdc, "V"))
+				}
+				fmt.Fprintf(stderr, "rfstress: CAUTION: %s peak at %s node %s%s; never touch or adjust while transmitting (SAFETY.md)\n",
+					circuits.FormatSI(s.MaxNodeVpk, "V"), circuits.Escape(s.File), s.MaxNodeAt, dc)
 			}
+		}
+		if dc := reports.DCCaution(bank); dc != "" {
+			fmt.Fprintf(stderr, "rfstress: CAUTION: %s\n", dc)
 		}
 	}
 	if threshold >= 0 && bank.Verdict >= ratings.Verdict(threshold) && bank.Verdict != ratings.OK {
@@ -298,6 +319,10 @@ func prepareAudit(file string, flagSettings []stress.Setting, mats map[string]*r
 	c, err := circuits.Build(nl)
 	if err != nil {
 		return nil, read, []string{err.Error()}
+	}
+	if len(nl.Selects) > 0 {
+		// each select position brings its own band (stress.Variants)
+		cond.BandLo, cond.BandHi = nl.Selects[0].Lo, nl.Selects[0].Hi
 	}
 	if err := cond.Check(); err != nil {
 		return nil, read, []string{circuits.Escape(name) + ": " + err.Error()}
