@@ -3,6 +3,7 @@ package circuits
 import (
 	"math"
 	"math/cmplx"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -239,3 +240,46 @@ resistor R1 n1b gnd 1k
 		t.Error("unknown part accepted")
 	}
 }
+
+// An open shunt capacitor in a lowpass lets more of a harmonic through:
+// the 5-pole 0.1 dB Chebyshev (Matthaei, Young & Jones 1964, sec. 4.05)
+// with its middle capacitor open passes the 3rd harmonic as the ABCD
+// cascade of the filter without that capacitor says (Pozar, Microwave
+// Engineering, ch. 4), and more than the intact filter.
+func TestOpenShuntCapacitorRaisesHarmonic(t *testing.T) {
+	g := chebyshevG(5, 0.1)
+	const fc, r0 = 9e6, 50.0
+	wc := 2 * math.Pi * fc
+	c1, l2, c3 := g[0]/(wc*r0), g[1]*r0/wc, g[2]/(wc*r0)
+	src := "port in n1 z=50\nport out n3 z=50\n" +
+		"capacitor C1 n1 gnd " + ftoa(c1) + " q=1000\n" +
+		"inductor L2 n1 n2 " + ftoa(l2) + " q=200\n" +
+		"capacitor C3 n2 gnd " + ftoa(c3) + " q=1000\n" +
+		"inductor L4 n2 n3 " + ftoa(l2) + " q=200\n" +
+		"capacitor C5 n3 gnd " + ftoa(c1) + " q=1000\n"
+	_, c := mustParse(t, "lpf.net", src)
+	open, err := c.WithFault(PartFault{Part: "C3"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := 3 * 7.1e6
+	shuntC := func(v float64) abcd { return shuntY(1 / refCapacitorZ(v, lossModel{q: 1000}, f)) }
+	ind := func(v float64) abcd { return seriesZ(refInductorZ(v, lossModel{q: 200}, f)) }
+	ref := shuntC(c1).then(ind(l2)).then(ind(l2)).then(shuntC(c1)).s21Pozar(r0)
+	intact := shuntC(c1).then(ind(l2)).then(shuntC(c3)).then(ind(l2)).then(shuntC(c1)).s21Pozar(r0)
+	sp, err := open.TwoPort(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// 1e-6: the opened part keeps 1 GΩ across it, about 1e-7 of the
+	// impedances around it
+	if e := relErr(sp.S21, ref); e > 1e-6 {
+		t.Errorf("S21 at the 3rd harmonic with C3 open %v, ABCD without C3 %v", sp.S21, ref)
+	}
+	if cmplx.Abs(sp.S21) <= 2*cmplx.Abs(intact) {
+		t.Errorf("an open C3 should pass much more 3rd harmonic: |S21| %g open, %g intact", cmplx.Abs(sp.S21), cmplx.Abs(intact))
+	}
+	t.Logf("3rd harmonic |S21|: intact %.1f dB, C3 open %.1f dB", DB(intact), DB(sp.S21))
+}
+
+func ftoa(v float64) string { return strconv.FormatFloat(v, 'g', 12, 64) }

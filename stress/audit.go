@@ -152,6 +152,7 @@ type Engine struct {
 	// faulted is set for runs on a circuit with a part failed: a draw cut
 	// off from its supply is then dropped, not an input error
 	faulted bool
+	hasDC   bool // the circuit has a DC source (supply, draw)
 }
 
 // NewEngine prepares the case layout for c under cond.
@@ -211,6 +212,11 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 	}
 	for _, f := range e.carriers {
 		e.lims = append(e.lims, e.limitsAt(f))
+	}
+	for _, el := range c.Elements {
+		if sp := circuits.SpecOf(el.Kind); sp != nil && sp.Source {
+			e.hasDC = true
+		}
 	}
 	e.rdc = make([]float64, len(c.Elements))
 	for i, rp := range e.rparts {
@@ -424,6 +430,9 @@ type nodeWorst struct {
 // solveDC fills the workspace's DC figures: the network at f = 0 with
 // windings at their stated rdc= or their wire's resistance.
 func (e *Engine) solveDC(w *workspace) error {
+	if !e.hasDC {
+		return nil // no supply or draw: every DC figure stays 0, nothing to solve
+	}
 	dc, err := w.c.SolveDC(e.rdc)
 	if err != nil {
 		return err

@@ -75,8 +75,10 @@ func BenchmarkScalarRate(b *testing.B) {
 	}
 }
 
-func benchAudit(b *testing.B, settings ...string) {
-	fx := build(b, benchSource(b), settings...)
+func benchAudit(b *testing.B, settings ...string) { benchAuditSrc(b, benchSource(b), settings...) }
+
+func benchAuditSrc(b *testing.B, src string, settings ...string) {
+	fx := build(b, src, settings...)
 	w := fx.eng.newWorkspace(fx.c)
 	b.ReportAllocs()
 	for b.Loop() {
@@ -377,4 +379,26 @@ func BenchmarkAuditHeavyFlopBound(b *testing.B) {
 	b.ReportMetric(per*1e3, "cpu-ms/op")
 	b.ReportMetric(per/bound, "x-bound")
 	b.ReportMetric(rate/1e9, "Gflop/s")
+}
+
+// BenchmarkPartFaultsEach is the default audit of the 80 m lowpass once per
+// single-part fault: its 7 parts shorted, then opened, 14 audits.
+func BenchmarkPartFaultsEach(b *testing.B) {
+	fx := build(b, benchSource(b), append(benchDefault, "part-faults=each")...)
+	list, err := fx.eng.PartFaultList()
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		if _, err := fx.eng.RunPartFaults(list); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkAuditWithSupply is the default audit of the 80 m lowpass with a
+// supply and a draw fed through a choke: the DC solution's cost per audit.
+func BenchmarkAuditWithSupply(b *testing.B) {
+	src := benchSource(b) + "\nsupply B1 bplus 48V\ninductor RFC bplus n1 100u q=50 rdc=0.2 tol=10%\ndraw D1 n1 2A\n"
+	benchAuditSrc(b, src, benchDefault...)
 }
