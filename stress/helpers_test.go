@@ -89,6 +89,11 @@ func build(t testing.TB, src string, settings ...string) *fixture {
 	if err := cond.Apply(ss); err != nil {
 		t.Fatal(err)
 	}
+	if len(nl.Selects) > 0 && cond.BandLo == 0 {
+		// as the command does: the netlist as written at its first
+		// position's band (AuditNetlist gives every position its own)
+		cond.BandLo, cond.BandHi = nl.Selects[0].Lo, nl.Selects[0].Hi
+	}
 	eng, err := NewEngine(c, rs, cond)
 	if err != nil {
 		t.Fatal(err)
