@@ -149,3 +149,12 @@ func (a *Adjust) NearestStep(v float64) int {
 	}
 	return i
 }
+
+// WithAntenna returns a copy of c whose antenna port is the fixed load z,
+// without any measured data: a network retuned for one load is audited
+// into that load, not into the port's sweep.
+func (c *Circuit) WithAntenna(z complex128) *Circuit {
+	d := *c
+	d.Zout, d.outMeas = z, nil
+	return &d
+}

@@ -65,8 +65,9 @@ func RetuneAudit(c *circuits.Circuit, rs *ratings.Set, cond Conditions, allowUnr
 			rt.PerLoad = append(rt.PerLoad, la)
 			continue
 		}
-		tc := m.Retuned(r.Best.Values)
-		tc.Zout = r.Load
+		// the copy's antenna is the load tuned for, never the port's
+		// measured sweep (which the engine would otherwise prefer)
+		tc := m.Retuned(r.Best.Values).WithAntenna(r.Load)
 		one.BandLo, one.BandHi = r.F, r.F
 		e, err := NewEngine(tc, rs, one)
 		if err != nil {

@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"rfstress/circuits"
 	"rfstress/ratings"
 	"rfstress/tuning"
 )
@@ -128,5 +129,48 @@ func TestRetuneUnmatchable(t *testing.T) {
 	}
 	if s.NumCases != 2 {
 		t.Errorf("%d cases, want 2 (matched and open for the one matched load)", s.NumCases)
+	}
+}
+
+// A port with a measured antenna retuned for other loads: each load's
+// audit is into the load it was tuned for, not into the port's sweep. By
+// hand, at the match the line current is √(P/50) and the coil (Q 100)
+// loses I²·ωL/Q.
+func TestRetuneIgnoresMeasuredSweep(t *testing.T) {
+	src := strings.Replace(worked160, "port out n2 z=321+j255", "port out n2 z=321+j255 measured=ant.s1p", 1)
+	nl, err := circuits.Parse("test.net", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// a sweep far from the loads tuned for: 5 Ω resistive
+	s1p := "# MHz Z RI R 50\n1.8 0.1 0\n1.85 0.1 0\n"
+	if err := circuits.LoadMeasured(nl, func(string) ([]byte, error) { return []byte(s1p), nil }); err != nil {
+		t.Fatal(err)
+	}
+	c, err := circuits.Build(nl)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fx := build(t, worked160)
+	m, err := tuning.NewMatcher(c, tuning.DefaultSWR, tuning.LeastLoss)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ls := &tuning.LoadSet{Source: "test", Points: []tuning.LoadPoint{{Z: complex(321, 255)}}}
+	s, err := RetuneAudit(c, fx.rs, fx.cond, false, ls, m, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	la := s.Retune.PerLoad[0]
+	L := la.Tune.Best.Values[0]
+	hand := 1500.0 / 50 * 2 * math.Pi * 1.825e6 * L / 100
+	var got float64
+	for _, kw := range la.Section.Parts[0].ByKind {
+		if kw.Kind == Matched {
+			got = kw.Value[ratings.Pdiss]
+		}
+	}
+	if relErr(got, hand) > 5e-3 {
+		t.Errorf("coil dissipation %.2f W at the tuned load, hand %.2f W (the sweep's 5 Ω would give another)", got, hand)
 	}
 }
