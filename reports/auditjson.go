@@ -284,7 +284,7 @@ func WriteAuditJSON(w io.Writer, doc *JSONAudit) error { return writeJSON(w, doc
 // header.
 func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 	cw := csv.NewWriter(w)
-	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "bavg_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "arc_v", "vpk_case", "irms_case", "part_verdict", "part_utilization", "tx_swr", "tx_zin_re_ohm", "tx_zin_im_ohm", "tx_reflected_w"})
+	cw.Write([]string{"file", "part", "kind", "case_kind", "vpk_v", "vrms_v", "irms_a", "pdiss_w", "bpk_t", "bavg_t", "temp_c", "jrms_a_per_m2", "pm_w_per_m", "arc_v", "vpk_case", "irms_case", "part_verdict", "part_utilization", "tx_swr", "tx_zin_re_ohm", "tx_zin_im_ohm", "tx_reflected_w", "section"})
 	for _, s := range b.Sections {
 		for _, p := range s.Parts {
 			for _, k := range p.ByKind {
@@ -303,6 +303,8 @@ func WriteAuditCSV(w io.Writer, b *stress.Bank) error {
 				} else {
 					row = append(row, "", "", "", "")
 				}
+				// a select position or its wrong-band fault ("" otherwise)
+				row = append(row, sectionLabel(s))
 				cw.Write(csvSafeRow(row))
 			}
 			writeTolCSV(cw, s, p)
@@ -402,7 +404,7 @@ func writeTolCSV(cw *csv.Writer, s *stress.Section, p *stress.PartResult) {
 				}
 				row = append(row, cell)
 			}
-			row = append(row, "", "", p.Verdict.String(), csvNum(p.Util))
+			row = append(row, "", "", p.Verdict.String(), csvNum(p.Util), "", "", "", "", sectionLabel(s))
 			cw.Write(csvSafeRow(row))
 		}
 	}
