@@ -240,7 +240,7 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 		writeSectionText(w, s, width)
 	}
 	fmt.Fprintln(w)
-	wrapLine(w, width, "OVERALL  ", "         ", VerdictWords(b.Verdict))
+	wrapLine(w, width, "OVERALL  ", "         ", BankVerdictWords(b))
 	if math.IsInf(b.SafeW, 1) {
 		wrapLine(w, width, "  ", "    ", "maximum safe power: no rated limit binds (add ratings)")
 	} else {
@@ -291,6 +291,28 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 		wrapLine(w, width, "  ", "    ", "CAUTION: "+dc)
 	}
 	return nil
+}
+
+// BankVerdictWords is the bank's verdict in a sentence; a failure that
+// comes only from transmitter protection says so rather than blaming
+// parts.
+func BankVerdictWords(b *stress.Bank) string {
+	if b.Verdict != ratings.Fail {
+		return VerdictWords(b.Verdict)
+	}
+	tx := false
+	for _, s := range b.Sections {
+		for _, p := range s.Parts {
+			if p.Verdict == ratings.Fail {
+				return VerdictWords(b.Verdict)
+			}
+		}
+		tx = tx || s.Tx.Verdict == ratings.Fail
+	}
+	if tx {
+		return "FAIL — transmitter protection: the transmitter sees an SWR above tx-swr-max (no part exceeds its rating)"
+	}
+	return VerdictWords(b.Verdict)
 }
 
 // VerdictWords is the overall verdict in a sentence.

@@ -67,7 +67,7 @@ func (p *pdfw) verdictBox() {
 	p.font("", 9.5)
 	safeLines := p.split(safe, bodyW-12)
 	p.font("B", 12.5)
-	words := VerdictWords(b.Verdict)
+	words := BankVerdictWords(b)
 	wordLines := p.split(words, bodyW-12)
 	h := 6 + float64(len(wordLines))*5.6 + float64(len(safeLines))*4.4 + 3
 	y := f.GetY()
