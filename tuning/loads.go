@@ -228,3 +228,21 @@ func (ls *LoadSet) At(f float64) (complex128, error) {
 	}
 	return p[len(p)-1].Z, nil
 }
+
+// About re-centres a region at each carrier on centre(f) (a measured
+// antenna's impedance there): the set becomes one region per carrier,
+// each load carrying its frequency. Sets read from files are returned as
+// they are.
+func (ls *LoadSet) About(centre func(float64) complex128, carriers []float64) *LoadSet {
+	if ls.File {
+		return ls
+	}
+	out := &LoadSet{Source: ls.Source + " about the measured antenna at each carrier", SWR: ls.SWR, File: true}
+	for _, f := range carriers {
+		for _, p := range Region(centre(f), ls.SWR).Points {
+			p.F = f
+			out.Points = append(out.Points, p)
+		}
+	}
+	return out
+}

@@ -129,3 +129,23 @@ func TestRegion(t *testing.T) {
 	}
 	_ = circuits.Pos{}
 }
+
+// A region re-centred per carrier keeps its shape about each centre.
+func TestRegionAbout(t *testing.T) {
+	centre := func(f float64) complex128 { return complex(f/1e5, -f/1e4) }
+	ls := Region(50, 3).About(centre, []float64{3.5e6, 3.8e6})
+	if !ls.File || len(ls.Points) != 2*(1+regionRings*regionPhases) {
+		t.Fatalf("%d points", len(ls.Points))
+	}
+	for _, p := range ls.Points {
+		z0 := centre(p.F)
+		g := cmplx.Abs((p.Z - z0) / (p.Z + cmplx.Conj(z0)))
+		if math.Abs(g-(p.Ring-1)/(p.Ring+1)) > 1e-9 {
+			t.Errorf("load %v at %v: |Γ| %.6f off its ring %.3f", p.Z, p.F, g, p.Ring)
+		}
+	}
+	cs, err := ls.Cases([]float64{3.5e6, 3.8e6}, 3.5e6, 3.8e6)
+	if err != nil || len(cs) != len(ls.Points) {
+		t.Errorf("cases %d, %v", len(cs), err)
+	}
+}

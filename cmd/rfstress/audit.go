@@ -390,6 +390,12 @@ func retuneFile(c *circuits.Circuit, rs *ratings.Set, cond stress.Conditions, al
 		if ls, err = tuning.ParseLoads(*tf.loads, c.Zout, readText("load file")); err != nil {
 			return nil, err
 		}
+		if c.HasMeasuredAntenna() {
+			// an SWR region centres on the measured antenna at each carrier,
+			// as the audit's own SWR circle does
+			carriers := cond.Carriers()
+			ls = ls.About(c.AntennaZ, carriers[:len(carriers)-len(cond.CarrierAlso)])
+		}
 	} else if c.HasMeasuredAntenna() {
 		// the antenna's own measured impedance at each band carrier
 		ls = &tuning.LoadSet{Source: "port out's measured impedance", File: true}

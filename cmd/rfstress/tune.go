@@ -96,6 +96,8 @@ func runTune(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 		if ls.File {
 			inputs = append(inputs, *tf.loads)
+		} else if c.HasMeasuredAntenna() && f > 0 {
+			ls = ls.About(c.AntennaZ, []float64{f})
 		}
 	} else {
 		ls = &tuning.LoadSet{Source: "--load"}
