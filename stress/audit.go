@@ -366,6 +366,9 @@ type workspace struct {
 	// circle, and the antenna at each harmonic of that carrier
 	zc     complex128
 	circle []circuits.Load
+	own    []circuits.Load // circle round another centre than the port's z
+	ownZ   complex128
+	ownOK  bool
 	hz     []complex128
 	// limits per part at the current carrier
 	dcq [nQ]float64 // the DC share of each stress evalPart last computed
@@ -388,7 +391,7 @@ type partLimits struct {
 func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 	n := len(c.Elements)
 	w := &workspace{c: c, sw: circuits.NewSplitWork(c), carr: circuits.NewSplit(c),
-		circle: make([]circuits.Load, len(e.circle)), hz: make([]complex128, len(e.levels)),
+		hz: make([]complex128, len(e.levels)),
 		lim: make([]partLimits, n), acc: make([]accum, n), hEMF: make([]float64, len(e.levels)),
 		dcV: make([]float64, n), dcI: make([]float64, n), dcL: make([]float64, n), dcP: make([]float64, n),
 		dcNode: make([]float64, len(c.Nodes))}
@@ -523,12 +526,23 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 // each harmonic (measured where the sweep reaches, else the port's z).
 func (e *Engine) setAntenna(w *workspace, fi int, f float64) {
 	w.zc = e.centre[fi]
-	for k := range w.circle {
-		if w.zc == e.C.Zout {
-			w.circle[k] = e.circle[k]
-		} else {
-			w.circle[k] = circuits.LoadOnCircle(w.zc, e.Cond.SWR, e.phaseAngle(k))
+	// the port's own circle is the engine's, shared read-only; another
+	// centre (a measured antenna) gets the workspace's own copy, drawn
+	// again only when the centre moves: per carrier this was a copy of
+	// every phase, as costly as the rest of a 3600-phase audit
+	if w.zc == e.C.Zout {
+		w.circle = e.circle
+	} else {
+		if w.own == nil {
+			w.own = make([]circuits.Load, len(e.circle))
 		}
+		if !w.ownOK || w.ownZ != w.zc {
+			for k := range w.own {
+				w.own[k] = circuits.LoadOnCircle(w.zc, e.Cond.SWR, e.phaseAngle(k))
+			}
+			w.ownZ, w.ownOK = w.zc, true
+		}
+		w.circle = w.own
 	}
 	for h := range w.hz {
 		w.hz[h] = e.C.Zout
