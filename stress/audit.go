@@ -391,7 +391,7 @@ type partLimits struct {
 func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 	n := len(c.Elements)
 	w := &workspace{c: c, sw: circuits.NewSplitWork(c), carr: circuits.NewSplit(c),
-		hz: make([]complex128, len(e.levels)),
+		hz:  make([]complex128, len(e.levels)),
 		lim: make([]partLimits, n), acc: make([]accum, n), hEMF: make([]float64, len(e.levels)),
 		dcV: make([]float64, n), dcI: make([]float64, n), dcL: make([]float64, n), dcP: make([]float64, n),
 		dcNode: make([]float64, len(c.Nodes))}
