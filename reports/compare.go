@@ -74,14 +74,18 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 	if f := v.Fit; f != nil {
 		fmt.Fprintf(w, "\n  Q fit (--fit %s) to S21 and S11 at %d measured points, %s to %s\n", v.FitBy, f.Points,
 			circuits.FormatHz(f.Lo), circuits.FormatHz(f.Hi))
-		t = newTable("coil(s)", "Q factor", "± 1σ")
+		t = newTable("coil(s)", "Q factor", "± 1σ", "fitted Q at "+circuits.FormatHz(f.FitAt))
 		t.leftCols = 1
 		for _, g := range f.Groups {
 			name := g.Name
 			if len(g.Parts) > 1 || name != g.Parts[0] {
 				name += " (" + strings.Join(g.Parts, ", ") + ")"
 			}
-			t.row(name, "× "+num(g.Scale, 3), sigmaText(g))
+			var qs []string
+			for k, q := range g.Q {
+				qs = append(qs, g.Parts[k]+" "+num(q, 0))
+			}
+			t.row(name, "× "+num(g.Scale, 3), sigmaText(g), strings.Join(qs, ", "))
 		}
 		t.write(w)
 		for _, g := range f.Groups {
@@ -129,17 +133,19 @@ type jsonHeat struct {
 }
 
 type jsonFitGroup struct {
-	Name    string   `json:"name"`
-	Parts   []string `json:"parts"`
-	Scale   *float64 `json:"q_scale"`
-	Sigma   *float64 `json:"sigma"`
-	AtBound bool     `json:"at_search_bound"`
+	Name    string    `json:"name"`
+	Parts   []string  `json:"parts"`
+	Scale   *float64  `json:"q_scale"`
+	Sigma   *float64  `json:"sigma"`
+	AtBound bool      `json:"at_search_bound"`
+	Q       []float64 `json:"fitted_q"`
 }
 
 type jsonFit struct {
 	By        string         `json:"by"`
 	Points    int            `json:"points"`
 	LoHz      float64        `json:"from_hz"`
+	FitAtHz   float64        `json:"fitted_q_at_hz"`
 	HiHz      float64        `json:"to_hz"`
 	RMSBefore *float64       `json:"rms_before"`
 	RMSAfter  *float64       `json:"rms_after"`
@@ -173,9 +179,9 @@ func WriteCompareJSON(w io.Writer, v *CompareView) error {
 			ModelShare: jsonNum(h.ModelShare), MeasShare: jsonNum(h.MeasShare), ModelW: jsonNum(h.ModelW), MeasW: jsonNum(h.MeasW)})
 	}
 	if f := v.Fit; f != nil {
-		jf := &jsonFit{By: v.FitBy, Points: f.Points, LoHz: f.Lo, HiHz: f.Hi, RMSBefore: jsonNum(f.RMSBefore), RMSAfter: jsonNum(f.RMSAfter)}
+		jf := &jsonFit{By: v.FitBy, Points: f.Points, LoHz: f.Lo, FitAtHz: f.FitAt, HiHz: f.Hi, RMSBefore: jsonNum(f.RMSBefore), RMSAfter: jsonNum(f.RMSAfter)}
 		for _, g := range f.Groups {
-			jf.Groups = append(jf.Groups, jsonFitGroup{Name: g.Name, Parts: g.Parts, Scale: jsonNum(g.Scale), Sigma: jsonNum(g.Sigma), AtBound: g.AtBound})
+			jf.Groups = append(jf.Groups, jsonFitGroup{Name: g.Name, Parts: g.Parts, Scale: jsonNum(g.Scale), Sigma: jsonNum(g.Sigma), AtBound: g.AtBound, Q: g.Q})
 		}
 		j.Fit = jf
 	}

@@ -196,7 +196,9 @@ type FitGroup struct {
 	Name  string   // the inductor's name, or "inductors" for the class
 	Parts []string // inductor names
 	Scale float64  // Q multiplier
-	Sigma float64  // one standard deviation of Scale (from the fit's curvature)
+	// Q is each part's fitted Q at FitAt (model Q there × Scale)
+	Q     []float64
+	Sigma float64 // one standard deviation of Scale (from the fit's curvature)
 	// AtBound: the search stopped at the edge of its range (Q × 1/50 or
 	// × 50): the measurement differs from the model in more than Q
 	AtBound bool
@@ -214,6 +216,7 @@ type Fit struct {
 	RMSBefore  float64 // RMS complex S residual before and after
 	RMSAfter   float64
 	Lo, Hi     float64
+	FitAt      float64 // where the fitted Q values are stated: the fit band's geometric centre
 	Iterations int
 }
 
@@ -343,6 +346,12 @@ func FitQ(c *circuits.Circuit, t *circuits.Touchstone, lo, hi float64, perPart b
 				// σ of log scale is the relative σ of the scale
 				groups[g].Sigma = math.Sqrt(v) * groups[g].Scale
 			}
+		}
+	}
+	fit.FitAt = math.Sqrt(lo * hi)
+	for g := range groups {
+		for _, i := range members[g] {
+			groups[g].Q = append(groups[g].Q, c.Elements[i].Q(fit.FitAt)*groups[g].Scale)
 		}
 	}
 	fit.Groups = groups
