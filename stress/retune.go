@@ -105,8 +105,20 @@ func RetuneAudit(c *circuits.Circuit, rs *ratings.Set, cond Conditions, allowUnr
 			shown.Points++
 		}
 	}
+	air := ratings.Atmosphere{Altitude: cond.Altitude, Ambient: cond.Ambient}
 	sec := &Section{File: nl.File, Title: nl.Title, SHA256: nl.SHA256(), Netlist: nl, Conditions: shown,
-		Engine: index, NumCases: index.NumCases(), SafeW: math.Inf(1), Retune: rt}
+		Engine: index, NumCases: index.NumCases(), SafeW: math.Inf(1), Retune: rt,
+		Air: air, AirPressure: air.Pressure()}
+	// each node's worst peak over the matchable loads
+	for ni, n := range c.Nodes {
+		np := NodePeak{Node: n}
+		for _, la := range rt.PerLoad {
+			if la.Section != nil && ni < len(la.Section.Nodes) && la.Section.Nodes[ni].Vpk > np.Vpk {
+				np.Vpk, np.Case = la.Section.Nodes[ni].Vpk, la.Section.Nodes[ni].Case+la.First
+			}
+		}
+		sec.Nodes = append(sec.Nodes, np)
+	}
 	if rs != nil {
 		sec.Findings, sec.Profile = rs.Findings, rs.Profile
 	}
@@ -130,6 +142,9 @@ func RetuneAudit(c *circuits.Circuit, rs *ratings.Set, cond Conditions, allowUnr
 					x.Case += la.First
 					x.UtilCase += la.First
 					p.Stress[q] = &x
+					if q == ratings.Arc {
+						p.Clearance = lp.Clearance // the gap's figures at its worst load
+					}
 				}
 			}
 		}
@@ -153,6 +168,7 @@ func RetuneAudit(c *circuits.Circuit, rs *ratings.Set, cond Conditions, allowUnr
 			sec.MaxNodeVpk, sec.MaxNodeAt, sec.MaxNodeCase = la.Section.MaxNodeVpk, la.Section.MaxNodeAt, la.Section.MaxNodeCase+la.First
 		}
 	}
+	clearanceFindings(sec, c, rs, air)
 	for _, p := range sec.Parts {
 		if p.Verdict > sec.Verdict && !(p.Verdict == ratings.Unrated && allowUnrated) {
 			sec.Verdict = p.Verdict

@@ -49,7 +49,7 @@ func (e *Engine) Audit() (*Section, error) {
 	if s.Tx.Verdict > s.Verdict {
 		s.Verdict = s.Tx.Verdict
 	}
-	e.clearanceFindings(s)
+	clearanceFindings(s, e.C, e.R, e.Air())
 	for _, p := range s.Parts {
 		if p.Verdict > s.Verdict && !(p.Verdict == ratings.Unrated && e.AllowUnrated) {
 			s.Verdict = p.Verdict
@@ -496,8 +496,13 @@ const ArcCheckGap = 1e-3
 // to ground, each part's terminals) whose worst peak voltage would arc
 // across a typical 1 mm air clearance when no clearance is declared
 // between those two nodes (gap= on a part, or a clearance statement).
-func (e *Engine) clearanceFindings(s *Section) {
-	air := e.Air()
+func clearanceFindings(s *Section, c *circuits.Circuit, rs *ratings.Set, air ratings.Atmosphere) {
+	rpart := func(i int) *ratings.Part {
+		if rs == nil {
+			return nil
+		}
+		return rs.Parts[c.Elements[i].Name]
+	}
 	thr := ratings.ArcVoltage(ArcCheckGap, air)
 	s.ArcCheckV = thr
 	type pair struct{ a, b string }
@@ -508,8 +513,8 @@ func (e *Engine) clearanceFindings(s *Section) {
 		return pair{a, b}
 	}
 	declared := map[pair]bool{}
-	for i, el := range e.C.Elements {
-		if rp := e.rparts[i]; rp != nil && rp.Gap != nil {
+	for i, el := range c.Elements {
+		if rp := rpart(i); rp != nil && rp.Gap != nil {
 			declared[key(el.Comp.A, el.Comp.B)] = true
 		}
 	}
@@ -523,12 +528,12 @@ func (e *Engine) clearanceFindings(s *Section) {
 		}
 	}
 	for i, p := range s.Parts {
-		rp := e.rparts[i]
+		rp := rpart(i)
 		st, ok := p.Stress[ratings.Vpk]
 		if rp == nil || !ok || st.Value <= thr {
 			continue
 		}
-		a, b, across := rp.AcrossNodes(e.C.Elements[i].Comp)
+		a, b, across := rp.AcrossNodes(c.Elements[i].Comp)
 		if !across || declared[key(a, b)] {
 			continue
 		}
