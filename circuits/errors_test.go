@@ -32,6 +32,19 @@ func TestParseErrors(t *testing.T) {
 		text string
 		want string
 	}{
+		// DC sources, contacts and band positions: columns counted by hand
+		{"supply on gnd", base + "supply B1 gnd 3kV\n",
+			"t.net:7:11: supply B1 is on gnd (it connects its node to gnd) (a node other than gnd)"},
+		{"negative draw", base + "draw D1 n2 -1A\n",
+			"t.net:7:12: draw value -1A is not positive (a value above zero, such as 0.8A)"},
+		{"switch state", base + "switch S1 n1 n2 state=half\n",
+			`t.net:7:23: switch S1: unknown state "half" (closed or open)`},
+		{"switch without state", base + "switch S1 n1 n2\n",
+			"t.net:7:1: switch needs state= (closed or open)"},
+		{"select of an unknown switch", base + "select P1 closed=S9 band=7M\n",
+			`t.net:7:18: select P1 closes unknown switch "S9" (the names of switch statements)`},
+		{"select of a capacitor", base + "select P1 closed=C1 band=7M\n",
+			"t.net:7:18: select P1 closes capacitor C1, which is not a switch (the names of switch statements)"},
 		{"duplicate part name", base + "capacitor C1 n2 gnd 100p\n",
 			"t.net:7:11: part C1 is already defined at line 4 (a name not used before)"},
 		{"duplicate name across kinds", base + "resistor L1 n2 gnd 1k\n",

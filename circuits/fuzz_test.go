@@ -34,6 +34,10 @@ var fuzzSeeds = []string{
 	"port in a z=50 # comment\n#port out b\nresistor R a gnd 5 # x=y\n",
 	"clearance K a gnd gap=1mm\nport in a z=50\nport out b z=50\nconnector J a b vpk=1k irms=5\nresistor R b gnd 50 gap=2mm medium=board\n",
 	"clearance K a a gap=0mm medium=\nconnector J a\nclearance K2 x y gap=1\n",
+	"port in p z=1k\nport out o z=50\nsupply B h 3kV\ndraw D p 0.8A\ninductor R p h 200u rdc=2 vpk=5k\ncapacitor Cb p t 2n\ncapacitor Ct t gnd 270p\ninductor L t o 2u\ncapacitor Cl o gnd 1n\n",
+	"port in a z=50\nport out b z=50\nswitch S1 a m state=closed ron=20m lon=5n coff=1p\nswitch S2 a m state=open coff=1p\ncapacitor C m gnd 100p\nresistor R m b 1\nresistor T b gnd 50\nselect P1 closed=S1 band=7M:7.3M\nselect P2 closed=S2 band=14M\n",
+	"supply B gnd 1\ndraw D\nswitch S a b state=half\nselect X closed=nope band=\nselect X closed=S band=1:0\n",
+	"port in a z=50\nport out b z=50\ncapacitor C a b 1n\ncapacitor D b gnd 1n\ndraw I b 1A\n",
 }
 
 // FuzzParse: Parse must never panic on any input; whatever parses must
@@ -72,6 +76,21 @@ func FuzzParse(f *testing.F) {
 		c, err := Build(nl)
 		if err != nil {
 			return
+		}
+		// the DC solution, faulted copies and switch positions never panic
+		_, _ = c.SolveDC(nil)
+		for _, el := range c.Elements {
+			for _, short := range []bool{true, false} {
+				if fc, err := c.WithFault(PartFault{Part: el.Name, Short: short}); err == nil {
+					_, _ = fc.SolveDC(nil)
+					_, _ = fc.Solve(7e6, 100, Load{Z: fc.Zout})
+				}
+			}
+		}
+		for _, sel := range nl.Selects {
+			pc := c.WithSwitches(sel.Closed)
+			_, _ = pc.SolveDC(nil)
+			_, _ = pc.Solve(sel.Lo, 100, Load{Z: pc.Zout})
 		}
 		for _, freq := range []float64{1e6, 14.2e6} {
 			if _, ck, err := c.SolveChecked(freq, 100, Load{Z: c.Zout}); err == nil && ck.OK() && ck.Balance != ck.Balance {
