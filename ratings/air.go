@@ -50,9 +50,6 @@ func (a Atmosphere) RelDensity() float64 {
 	return a.Pressure() / 101325 * 293.15 / (273.15 + a.Ambient)
 }
 
-// Torr per pascal.
-const torrPerPa = 760.0 / 101325
-
 // PdTorrCm is the reduced product p·d in Torr·cm (pressure scaled to the
 // 20 °C reference density) of a gap d metres long in atmosphere a.
 func (a Atmosphere) PdTorrCm(d float64) float64 { return a.RelDensity() * 760 * d * 100 }
