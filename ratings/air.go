@@ -136,7 +136,7 @@ func AirUniformBreakdown(pd float64) float64 {
 //     out of a gap of a millimetre or so, and their space charge lowers the
 //     breakdown of such gaps by some 10–20 % against DC (Meek & Craggs,
 //     Electrical Breakdown of Gases, 1978, discuss high-frequency
-//     breakdown); 0.8 takes the low end.
+//     breakdown); 0.8 takes the larger reduction.
 //   - FieldFactor 0.75: capacitor plates, leads and wiring are not
 //     infinite parallel plates; their edges, corners and burrs raise the
 //     local field above V/d. A field-utilisation factor of 0.7–0.8 is usual
