@@ -83,6 +83,15 @@ const (
 type pdfw struct {
 	f   *gofpdf.Fpdf
 	doc *ReportDoc
+	cur fontState // the font last set through font/mono
+}
+
+// fontState is a font as set through font/mono; ok false when gofpdf may
+// have changed it behind our back (it restores fonts round a page break).
+type fontState struct {
+	family, style string
+	size          float64
+	ok            bool
 }
 
 // WritePDF lays out doc as the PDF stress report and writes it to w. The
@@ -186,6 +195,8 @@ func (p *pdfw) printedDate() string {
 }
 
 func (p *pdfw) header() {
+	// gofpdf sets the page's font again after the header and the footer
+	defer func() { p.cur.ok = false }()
 	f := p.f
 	p.draw(colRule)
 	f.SetLineWidth(0.2)
@@ -206,6 +217,7 @@ func (p *pdfw) header() {
 }
 
 func (p *pdfw) footer() {
+	defer func() { p.cur.ok = false }()
 	f := p.f
 	p.draw(colRule)
 	f.SetLineWidth(0.2)
@@ -273,8 +285,19 @@ func (p *pdfw) split(s string, w float64) []string { return p.f.SplitText(clean(
 // width is the width of s in the current font.
 func (p *pdfw) width(s string) float64 { return p.f.GetStringWidth(clean(s)) }
 
-func (p *pdfw) font(style string, size float64) { p.f.SetFont(fontSans, style, size) }
-func (p *pdfw) mono(size float64)               { p.f.SetFont(fontCode, "", size) }
+func (p *pdfw) font(style string, size float64) { p.setFont(fontSans, style, size) }
+func (p *pdfw) mono(size float64)               { p.setFont(fontCode, "", size) }
+
+// setFont sets a font unless it is the current one: gofpdf writes a font
+// operator on every call, and tables set the same font cell after cell.
+func (p *pdfw) setFont(family, style string, size float64) {
+	want := fontState{family, style, size, true}
+	if p.cur == want {
+		return
+	}
+	p.f.SetFont(family, style, size)
+	p.cur = want
+}
 
 // text, fill and draw set a colour unless it is already the current one:
 // gofpdf formats the colour operator on every call, and tables set the
