@@ -516,6 +516,9 @@ func writePartFaultsText(w io.Writer, s *stress.Section, width int) {
 		if r.Err != "" {
 			wrapLine(w, width, "   ", "     ", fmt.Sprintf("%s: not solved (%s)", r.Fault, r.Err))
 		}
+		if r.ShortedSupply != "" {
+			wrapLine(w, width, "   ", "     ", ShortedSupplyText(r))
+		}
 	}
 	if len(pf.Consequences) == 0 {
 		fmt.Fprintln(w, "\n   no single-part fault takes another part beyond its derated limit")

@@ -81,6 +81,8 @@ type JSONFaultRun struct {
 	MaxNodeVdc *float64 `json:"max_node_vdc"`
 	MaxNode    string   `json:"max_node,omitempty"`
 	Error      string   `json:"error,omitempty"`
+	// ShortedSupply names a supply the fault shorts
+	ShortedSupply string `json:"shorted_supply,omitempty"`
 }
 
 // JSONFaultPart is one part's worst stresses over the other parts' faults.
@@ -118,7 +120,7 @@ func partFaultsJSON(s *stress.Section) *JSONPartFaults {
 	}
 	out := &JSONPartFaults{Faults: []JSONFaultRun{}, Parts: []JSONFaultPart{}, Consequences: []JSONConsequence{}}
 	for _, r := range pf.Runs {
-		jr := JSONFaultRun{Fault: r.Fault.String(), Error: r.Err}
+		jr := JSONFaultRun{Fault: r.Fault.String(), Error: r.Err, ShortedSupply: r.ShortedSupply}
 		if r.Err == "" {
 			jr.MaxNodeVpk, jr.MaxNodeVdc, jr.MaxNode = jsonNum(r.MaxNodeVpk), jsonNum(r.MaxNodeVdc), r.MaxNodeAt
 		}
@@ -153,4 +155,10 @@ func ConsequenceText(c stress.Consequence) string {
 		s += fmt.Sprintf(" (%s)", c.Verdict)
 	}
 	return s
+}
+
+// ShortedSupplyText says that a fault shorts a supply: its fuse or
+// current limit decides what happens, not the network.
+func ShortedSupplyText(r *stress.FaultRun) string {
+	return fmt.Sprintf("%s shorts supply %s: its fuse or current limit decides what happens next, and this fault's DC figures say only that", r.Fault, r.ShortedSupply)
 }

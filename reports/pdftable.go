@@ -583,6 +583,11 @@ func (p *pdfw) partFaults(s *stress.Section) {
 		}
 		p.para(8, fmt.Sprintf("%s — worst %s; %s", pw.Name, pw.Verdict, strings.Join(parts, "; ")))
 	}
+	for _, r := range pf.Runs {
+		if r.ShortedSupply != "" {
+			p.para(8, ShortedSupplyText(r))
+		}
+	}
 	if len(pf.Consequences) == 0 {
 		p.para(8.5, "No single-part fault takes another part beyond its derated limit.")
 		return

@@ -76,7 +76,15 @@ type FaultRun struct {
 	MaxNodeVdc float64
 	MaxNodeAt  string
 	Err        string
+	// ShortedSupply names a supply the fault shorts (its DC current above
+	// ShortedSupplyA): the supply's fuse or current limit then decides,
+	// and the DC figures of this fault say only that.
+	ShortedSupply string
 }
+
+// ShortedSupplyA is the DC current above which a supply counts as shorted
+// by a fault: only a dead short through ideal or failed parts reaches it.
+const ShortedSupplyA = 1e4
 
 // FaultWorst is one part's worst stress of one quantity over all faults.
 type FaultWorst struct {
@@ -141,6 +149,11 @@ func (e *Engine) RunPartFaults(list []circuits.PartFault) (*PartFaults, error) {
 			continue
 		}
 		run.MaxNodeVpk, run.MaxNodeVdc = nw.vpk, nw.dc
+		for j, el := range fc.Elements {
+			if el.Kind == circuits.Supply && math.Abs(w.dcI[j]) > ShortedSupplyA {
+				run.ShortedSupply = el.Name
+			}
+		}
 		if len(fc.Nodes) > 0 {
 			run.MaxNodeAt = fc.Nodes[nw.node]
 		}

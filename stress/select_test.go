@@ -205,3 +205,21 @@ func ParseFaultList(t *testing.T, v string) ([]circuits.PartFault, error) {
 	_, list, err := ParsePartFaults(v)
 	return list, err
 }
+
+// A fault that shorts the supply is named as such: shorting a capacitor
+// from the supply node to gnd draws 3 kV through 1 µΩ.
+func TestFaultShortsSupply(t *testing.T) {
+	src := strings.Replace(piNetlist(true, "vpk=10k irms=10"), "supply B1 bplus 3kV\n", "supply B1 bplus 3kV\ncapacitor Cbp bplus gnd 10n q=1000\n", 1)
+	fx := build(t, src)
+	_, list, err := ParsePartFaults("Cbp:short,Ct:short")
+	if err != nil {
+		t.Fatal(err)
+	}
+	pf, err := fx.eng.RunPartFaults(list)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if pf.Runs[0].ShortedSupply != "B1" || pf.Runs[1].ShortedSupply != "" {
+		t.Errorf("shorted supply: %q for Cbp, %q for Ct", pf.Runs[0].ShortedSupply, pf.Runs[1].ShortedSupply)
+	}
+}
