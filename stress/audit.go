@@ -689,7 +689,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	// statement) sees the part's peak voltage: RF peaks with harmonics
 	// added as peaks add, and any DC across the part the DC layer adds to
 	// q[qVpk] above (set last, so it takes whatever went into the peak)
-	q[qArc] = q[qVpk]
+	q[qArc], dcq[qArc] = q[qVpk], dcq[qVpk]
 	has[qArc] = true
 	e.keep(w, i, ci, kind, &q, &has)
 }

@@ -309,3 +309,32 @@ func TestRetuneKeepsClearances(t *testing.T) {
 		}
 	}
 }
+
+// TestClearanceAddsDC: a 100 V supply fed through an RF choke onto a
+// matched 50 Ω line at 100 W. The line node carries E/2 = 70.7 V RMS,
+// 100 V peak of RF on top of the 100 V DC, so a gap from it to ground sees
+// 200 V peak (peaks add; 2 % for the choke's and the blocking capacitor's
+// small reactances); the supply node, an RF short, sees its 100 V DC
+// alone.
+func TestClearanceAddsDC(t *testing.T) {
+	src := `
+port in  n1 z=50
+port out n2 z=50
+supply HV bplus 100V
+inductor  RFC n1 bplus 100u q=60
+capacitor Cb  n1 n2 10n q=2000
+clearance K1 n1 gnd gap=1mm
+clearance K2 bplus gnd gap=1mm medium=board
+audit power=100 freq=14.2M harmonics=none
+`
+	s, err := build(t, src).eng.Audit()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if v := partByName(t, s, "K1").Clearance.Vpk; relErr(v, 200) > 0.02 {
+		t.Errorf("K1 %.2f V peak, hand 100 V DC + 100 V RF", v)
+	}
+	if v := partByName(t, s, "K2").Clearance.Vpk; relErr(v, 100) > 1e-6 {
+		t.Errorf("K2 %.4f V peak, hand 100 V DC", v)
+	}
+}
