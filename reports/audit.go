@@ -400,13 +400,15 @@ func writeSectionText(w io.Writer, s *stress.Section, width int) {
 	writePartFaultsText(w, s, width)
 }
 
-// FormatSWR renders an SWR; a total reflection shows as "≥ 10⁶".
+// FormatSWR renders an SWR. Beyond 100:1 (|Γ| > 0.98, over 96 % of the
+// power reflected) the figure only says "nearly total reflection", and its
+// digits hang on the last tenth of an ohm of a model: it shows as "above 100".
 func FormatSWR(v float64) string {
-	if !(v < 1e6) {
-		return "≥ 1000000"
-	}
-	if v >= 100 {
-		return strconv.FormatFloat(v, 'f', 0, 64)
+	switch {
+	case v != v || v < 1:
+		return "—"
+	case v > 100:
+		return "above 100"
 	}
 	return strconv.FormatFloat(v, 'f', 2, 64)
 }

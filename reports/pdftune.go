@@ -226,7 +226,7 @@ func (p *pdfw) tuneTable(v *TuneView) {
 				out += " (" + r.Worst + ")"
 			}
 		}
-		cells = append(cells, num(r.SWR, 2), pct1(r.LossFrac), circuits.FormatSI(r.VpkW, "V"), out)
+		cells = append(cells, FormatSWR(r.SWR), pct1(r.LossFrac), circuits.FormatSI(r.VpkW, "V"), out)
 		row(cells, false, c)
 	}
 	p.text(colMuted)

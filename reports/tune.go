@@ -118,7 +118,7 @@ func WriteTuneText(w io.Writer, v *TuneView) error {
 		} else if r.Worst != "" {
 			out += " (" + r.Worst + ")"
 		}
-		cells = append(cells, num(r.SWR, 2), pct1(r.LossFrac), circuits.FormatSI(r.VpkW, "V"), out)
+		cells = append(cells, FormatSWR(r.SWR), pct1(r.LossFrac), circuits.FormatSI(r.VpkW, "V"), out)
 		t.row(cells...)
 	}
 	t.write(w)
