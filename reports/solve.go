@@ -22,6 +22,10 @@ type SolvePart struct {
 	// Note says more where the row's figures need it: a line's crest
 	// along it and its far end, a coil's terminal current.
 	Note string `json:"note,omitempty"`
+	// DC across and through the part when the netlist has a supply or a
+	// draw (absent otherwise)
+	Vdc *float64 `json:"vdc,omitempty"`
+	Idc *float64 `json:"idc,omitempty"`
 }
 
 // SolveView is everything the solve command shows.
@@ -78,6 +82,16 @@ func WriteSolveText(w io.Writer, v *SolveView) error {
 		t.row(p.Name, p.Kind, si(p.Vrms, "V"), si(p.Vpk, "V"), si(p.Irms, "A"), si(p.Pdiss, "W"))
 	}
 	t.write(w)
+	if len(v.Components) > 0 && v.Components[0].Vdc != nil {
+		fmt.Fprintf(w, "\n  DC (supplies and draws; capacitors open, windings at rdc= or their wire):\n")
+		d := newTable("part", "kind", "V dc", "I dc")
+		for _, p := range v.Components {
+			if p.Vdc != nil && p.Idc != nil {
+				d.row(p.Name, p.Kind, si(*p.Vdc, "V"), si(*p.Idc, "A"))
+			}
+		}
+		d.write(w)
+	}
 	for _, p := range v.Components {
 		if p.Note != "" {
 			fmt.Fprintf(w, "  %s: %s\n", p.Name, p.Note)

@@ -37,6 +37,12 @@ func TestAuditDCAndPartFaults(t *testing.T) {
 			t.Errorf("output lacks %q:\n%s", want, out)
 		}
 	}
+	// solve shows the DC solution: the choke drops 0.8 A × 2 Ω = 1.6 V
+	// (Ohm's law), the blocking capacitor holds the rest of the 3 kV
+	code, out, errs = runCLI(t, "solve", path, "--freq", "7.1M", "--power", "1500")
+	if code != 0 || !strings.Contains(out, "V dc") || !strings.Contains(out, "-1.60 V") || !strings.Contains(out, "3.00 kV") {
+		t.Errorf("solve with a supply: exit %d %s\n%s", code, errs, out)
+	}
 	code, _, errs = runCLI(t, "audit", path, "--part-faults", "C99:short")
 	if code != 2 || !strings.Contains(errs, "C99") {
 		t.Errorf("unknown part in --part-faults: exit %d, %s", code, errs)

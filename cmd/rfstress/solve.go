@@ -7,6 +7,7 @@ import (
 	"math/cmplx"
 
 	"rfstress/circuits"
+	"rfstress/ratings"
 	"rfstress/reports"
 	"rfstress/stress"
 )
@@ -100,6 +101,10 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 	if c.HasCM {
 		v.IcmA, v.PcmW = finite(cmplx.Abs(r.Icm)), finite(r.Pcm)
 	}
+	dc, err := solveDC(nl, c)
+	if err != nil {
+		return exitUsage, usagef("%s: %v", file, err)
+	}
 	for i, e := range c.Elements {
 		ps := r.Parts[i]
 		sp := reports.SolvePart{Name: e.Name, Kind: string(e.Kind),
@@ -116,6 +121,9 @@ func runSolve(args []string, stdout, stderr io.Writer) (int, error) {
 		}
 		if ps.It != 0 {
 			sp.Note = fmt.Sprintf("winding current %s (shown), terminal current %s", circuits.FormatSI(cmplx.Abs(ps.I), "A"), circuits.FormatSI(cmplx.Abs(ps.It), "A"))
+		}
+		if dc != nil {
+			sp.Vdc, sp.Idc = finite(real(dc.Parts[i].V)), finite(real(dc.Parts[i].I))
 		}
 		v.Components = append(v.Components, sp)
 	}
@@ -219,4 +227,23 @@ func finite(v float64) *float64 {
 		return nil
 	}
 	return &v
+}
+
+// solveDC is the DC solution of a netlist with a supply or a draw (nil
+// without one), windings at their rdc= or their wire's resistance as the
+// audit takes them.
+func solveDC(nl *circuits.Netlist, c *circuits.Circuit) (*circuits.DC, error) {
+	rdc := make([]float64, len(c.Elements))
+	if rs, err := ratings.Prepare(nl, nil, nil); err == nil {
+		for i, e := range c.Elements {
+			if p := rs.Parts[e.Name]; p != nil {
+				rdc[i] = p.WindingRdc()
+			}
+		}
+	}
+	dc, err := c.SolveDC(rdc)
+	if err != nil || !dc.Any {
+		return nil, err
+	}
+	return dc, dc.UnfedError()
 }
