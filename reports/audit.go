@@ -493,29 +493,6 @@ func writeClearanceText(w io.Writer, s *stress.Section, width int) {
 	t.write(w)
 }
 
-// ClearanceLines describes each declared clearance of a section: its worst
-// peak voltage, the voltage at which it would arc, its derated limit and
-// the gap that limit needs.
-func ClearanceLines(s *stress.Section) []string {
-	var out []string
-	for _, p := range s.Parts {
-		c := p.Clearance
-		if c == nil {
-			continue
-		}
-		l := fmt.Sprintf("%-8s %s: %s peak; in air would arc at %s", p.Name, GapText(p), circuits.FormatSI(c.Vpk, "V"), circuits.FormatSI(c.ArcV, "V"))
-		if c.Medium != ratings.MediumAir {
-			l += "; working guide " + circuits.FormatSI(c.Limit, "V")
-		}
-		l += fmt.Sprintf("; derated limit %s; gap for it %s", circuits.FormatSI(c.Derated, "V"), mmText(c.Needed))
-		out = append(out, l)
-	}
-	if len(out) > 0 {
-		out = append(out, fmt.Sprintf("(air at %s m, %s kPa, %s °C)", num(s.Air.Altitude, 0), num(s.AirPressure/1e3, 1), num(s.Air.Ambient, 0)))
-	}
-	return out
-}
-
 // mmText renders a gap in millimetres, to 0.01 mm.
 func mmText(d float64) string {
 	if !finite(d) {

@@ -508,13 +508,7 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	p.room(5)
 	p.f.SetX(marginL)
 	p.multi(bodyW, 4.4, safe)
-	if cl := ClearanceLines(s); len(cl) > 0 {
-		p.sub("Clearances", 20)
-		p.para(8, "Each declared gap against the worst peak voltage between its nodes: the voltage at which it would arc in air, the derated limit it is judged against, and the gap that limit needs.")
-		for _, l := range cl {
-			p.bullet(8, l)
-		}
-	}
+	p.clearances(s)
 	p.findings(s)
 	p.partFaults(s)
 	p.tolerance(s)
@@ -599,4 +593,33 @@ func (p *pdfw) partFaults(s *stress.Section) {
 	for _, c := range pf.Consequences {
 		p.para(8.5, ConsequenceText(c))
 	}
+}
+
+// clearances is the table of a section's declared gaps: the worst peak
+// voltage across each, the voltage at which it would arc in air, the
+// derated limit, its use, the gap that limit needs, and the verdict.
+func (p *pdfw) clearances(s *stress.Section) {
+	if !hasGaps(s) {
+		return
+	}
+	intro := fmt.Sprintf("Each declared gap against the worst peak voltage between its nodes, in air at %s m above sea level "+
+		"(%s kPa, ISO 2533) and %s °C: the voltage at which it would arc in air, the derated limit it is judged against "+
+		"(for a board surface, the working-voltage guide), and the gap that limit needs.",
+		num(s.Air.Altitude, 0), num(s.AirPressure/1e3, 1), num(s.Air.Ambient, 0))
+	p.sub("Clearances", p.paraHeight(8, intro)+16)
+	p.para(8, intro)
+	p.f.Ln(1)
+	cols := widths([]string{"part", "gap", "peak V", "would arc at", "derated limit", "use", "gap needed", "verdict"},
+		[]float64{12, 16, 13, 14, 14, 10, 13, 15}, "LLRRRRRL")
+	var rows []trow
+	for _, pr := range s.Parts {
+		c := pr.Clearance
+		st := pr.Stress[ratings.Arc]
+		if c == nil || st == nil {
+			continue
+		}
+		rows = append(rows, trow{cells: []tcell{{s: pr.Name, bold: true}, tc(GapText(pr)), tc(circuits.FormatSI(c.Vpk, "V")),
+			tc(circuits.FormatSI(c.ArcV, "V")), tc(circuits.FormatSI(c.Derated, "V")), tc(pct(st.Util)), tc(mmText(c.Needed)), tv(st.Verdict)}})
+	}
+	p.table(cols, rows, 8)
 }
