@@ -100,9 +100,9 @@ func (e *Engine) txCase(w *workspace, ci int, kind CaseKind, alpha complex128) {
 // txCircle records the worst the transmitter sees over the SWR circle:
 // every sampled phase, then the continuous circle. Γ at the transmitter is
 // a bilinear (Möbius) function of the weight α, which runs on a circle,
-// so |Γ| has one crest on it; the best of 72 points along the α circle is
-// refined by golden-section search, so the worst reported is never below
-// any sampled load.
+// so |Γ| has one crest on it, found in closed form (txCrest), or else as
+// the best of 72 points along the α circle refined by golden-section
+// search; the worst reported is never below any sampled load.
 func (e *Engine) txCircle(w *workspace, first int) {
 	s := w.carr
 	ca, ra, ok := e.alphaCircle(s, w.zc)
@@ -115,21 +115,24 @@ func (e *Engine) txCircle(w *workspace, first int) {
 			return
 		}
 	}
-	at := func(phi float64) complex128 { return ca + complex(ra*math.Cos(phi), ra*math.Sin(phi)) }
-	gam := func(phi float64) float64 {
-		a := at(phi)
-		scale, _ := e.drive(w, a)
-		return e.txAt(s, a, scale).Gamma
-	}
-	best, bj := -1.0, 0
-	for j := 0; j < n; j++ {
-		if g := gam(2 * math.Pi * float64(j) / n); g > best {
-			best, bj = g, j
+	a, ok := e.txCrest(w, ca, ra)
+	if !ok {
+		at := func(phi float64) complex128 { return ca + complex(ra*math.Cos(phi), ra*math.Sin(phi)) }
+		gam := func(phi float64) float64 {
+			a := at(phi)
+			scale, _ := e.drive(w, a)
+			return e.txAt(s, a, scale).Gamma
 		}
+		best, bj := -1.0, 0
+		for j := 0; j < n; j++ {
+			if g := gam(2 * math.Pi * float64(j) / n); g > best {
+				best, bj = g, j
+			}
+		}
+		step := 2 * math.Pi / n
+		phi, _ := goldenMax(gam, float64(bj)*step-step, float64(bj)*step+step)
+		a = at(phi)
 	}
-	step := 2 * math.Pi / n
-	phi, _ := goldenMax(gam, float64(bj)*step-step, float64(bj)*step+step)
-	a := at(phi)
 	scale, _ := e.drive(w, a)
 	v := e.txAt(s, a, scale)
 	j := e.phaseOfAlpha(w, a)
@@ -151,6 +154,58 @@ func (e *Engine) txCircle(w *workspace, first int) {
 		e.record(w, first, s.F, th)
 	}
 	w.keepTx(v, Circle)
+}
+
+// txCrest finds the weight α on the α circle (centre ca, radius ra) where
+// the transmitter's |Γ| is largest, in closed form. Γ = num/den with num
+// = vin − z·iin and den = vin + z*·iin, both affine in α (the drive scale
+// cancels), so Γ is a Möbius function of α and the α circle maps to a
+// circle in the Γ plane, fitted through three of its points; its point
+// farthest from the origin is the crest, and inverting the map gives its
+// α. It reports false when the fit fails (the image is nearly a line) or
+// the crest does not beat the three points, and the caller searches.
+func (e *Engine) txCrest(w *workspace, ca complex128, ra float64) (complex128, bool) {
+	s := w.carr
+	z := e.C.Zin
+	lin := func(alpha complex128) (num, den complex128) {
+		vin := s.Vin[0] + alpha*s.Vin[1]
+		iin := (1 - vin) / s.Zs
+		return vin - z*iin, vin + cmplx.Conj(z)*iin
+	}
+	n0, d0 := lin(0)
+	n1, d1 := lin(1)
+	a1, b1 := n1-n0, d1-d0
+	var g [3]complex128
+	most := 0.0
+	for k := range g {
+		phi := 2 * math.Pi * float64(k) / 3
+		al := ca + complex(ra*math.Cos(phi), ra*math.Sin(phi))
+		den := d0 + b1*al
+		if den == 0 {
+			return 0, false
+		}
+		g[k] = (n0 + a1*al) / den
+		most = math.Max(most, cmplx.Abs(g[k]))
+	}
+	c, r, ok := circleThrough(g[0], g[1], g[2])
+	if !ok {
+		return 0, false
+	}
+	crest := complex(r, 0)
+	if m := cmplx.Abs(c); m > 0 {
+		crest = c * complex(1+r/m, 0)
+	}
+	// Γ = (n0 + a1·α)/(d0 + b1·α)  ⇒  α = (n0 − d0·Γ)/(b1·Γ − a1)
+	q := b1*crest - a1
+	if q == 0 {
+		return 0, false
+	}
+	alpha := (n0 - d0*crest) / q
+	scale, _ := e.drive(w, alpha)
+	if g := e.txAt(s, alpha, scale).Gamma; !(g >= most*(1-1e-12)) {
+		return 0, false
+	}
+	return alpha, true
 }
 
 // goldenMax maximises f on [a, b] by golden-section search (the ends kept).
