@@ -474,8 +474,13 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	for _, l := range SectionConditions(s) {
 		p.para(8.5, l)
 	}
-	p.para(8.5, fmt.Sprintf("%d cases audited; highest node voltage %s peak at node %s (%s)",
-		s.NumCases, circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, caseText(s, s.MaxNodeCase)))
+	nodeLine := fmt.Sprintf("%d cases audited; highest node voltage %s peak at node %s (%s)",
+		s.NumCases, circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, caseText(s, s.MaxNodeCase))
+	if s.MaxNodeVdc > 0 {
+		nodeLine += fmt.Sprintf(", %s of it DC; highest DC %s at node %s (lethal: see the caution)",
+			circuits.FormatSI(s.MaxNodeVdc, "V"), circuits.FormatSI(s.MaxDCV, "V"), s.MaxDCAt)
+	}
+	p.para(8.5, nodeLine)
 	if t := TxText(s); t != "" {
 		t = strings.ToUpper(t[:1]) + t[1:] + "."
 		if s.Tx.Verdict == ratings.Fail {
