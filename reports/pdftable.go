@@ -477,8 +477,11 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	nodeLine := fmt.Sprintf("%d cases audited; highest node voltage %s peak at node %s (%s)",
 		s.NumCases, circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, caseText(s, s.MaxNodeCase))
 	if s.MaxNodeVdc > 0 {
-		nodeLine += fmt.Sprintf(", %s of it DC; highest DC %s at node %s (lethal: see the caution)",
+		nodeLine += fmt.Sprintf(", %s of it DC; highest DC %s at node %s",
 			circuits.FormatSI(s.MaxNodeVdc, "V"), circuits.FormatSI(s.MaxDCV, "V"), s.MaxDCAt)
+		if s.MaxDCV >= LethalDC {
+			nodeLine += " (lethal: see the caution)"
+		}
 	}
 	p.para(8.5, nodeLine)
 	if t := TxText(s); t != "" {
