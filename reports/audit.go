@@ -297,6 +297,16 @@ func WriteAuditTextWidth(w io.Writer, b *stress.Bank, cautionV float64, width in
 // comes only from transmitter protection says so rather than blaming
 // parts.
 func BankVerdictWords(b *stress.Bank) string {
+	words := bankVerdictWords(b)
+	for _, s := range b.Sections {
+		if s.NoPass {
+			words += "; CHECK " + Headline(s.File) + ": it does not pass its own band (transmitter SWR " + FormatSWR(s.Tx.InBandBest.SWR) + " with the antenna matched), a slip in a value or a node?"
+		}
+	}
+	return words
+}
+
+func bankVerdictWords(b *stress.Bank) string {
 	if b.Verdict == ratings.Marginal && adviceOnly(b) {
 		return "MARGINAL — advice only: a core's flux at average power is above its heating guide; no part exceeds a derated limit or a rating"
 	}

@@ -162,15 +162,19 @@ type JSONSection struct {
 	WrongFor      string          `json:"wrong_band_for,omitempty"`
 	PartFaults    *JSONPartFaults `json:"part_faults,omitempty"`
 	// what the transmitter sees, worst over every case
-	TxSWRWorst *float64       `json:"tx_swr_worst"`
-	TxZinWorst *JSONZ         `json:"tx_zin_worst"`
-	TxCase     string         `json:"tx_case"`
-	TxReflW    *float64       `json:"tx_reflected_w"`
-	TxSWRMax   *float64       `json:"tx_swr_max"`
-	TxVerdict  string         `json:"tx_verdict"`
-	Findings   []string       `json:"findings,omitempty"`
-	Tolerance  *JSONTolerance `json:"tolerance,omitempty"`
-	Tuning     *JSONTune      `json:"tuning,omitempty"`
+	TxSWRWorst *float64 `json:"tx_swr_worst"`
+	TxZinWorst *JSONZ   `json:"tx_zin_worst"`
+	TxCase     string   `json:"tx_case"`
+	TxReflW    *float64 `json:"tx_reflected_w"`
+	TxSWRMax   *float64 `json:"tx_swr_max"`
+	TxVerdict  string   `json:"tx_verdict"`
+	// the lowest SWR the transmitter sees over the band, antenna matched;
+	// does_not_pass_band when it is above stress.NoPassSWR
+	TxSWRInBandBest *float64       `json:"tx_swr_in_band_best,omitempty"`
+	NoPass          bool           `json:"does_not_pass_band,omitempty"`
+	Findings        []string       `json:"findings,omitempty"`
+	Tolerance       *JSONTolerance `json:"tolerance,omitempty"`
+	Tuning          *JSONTune      `json:"tuning,omitempty"`
 }
 
 // JSONZ is an impedance in ohms (null parts when not finite).
@@ -214,6 +218,9 @@ func AuditJSON(b *stress.Bank) *JSONAudit {
 			js.WrongFor = s.For
 		}
 		js.PartFaults = partFaultsJSON(s)
+		if b := s.Tx.InBandBest; b.Case >= 0 {
+			js.TxSWRInBandBest, js.NoPass = jsonNum(b.SWR), s.NoPass
+		}
 		for _, f := range s.Findings {
 			js.Findings = append(js.Findings, f.Part+": "+f.Text)
 		}

@@ -46,6 +46,7 @@ func (e *Engine) Audit() (*Section, error) {
 	}
 	s.Tx = w.tx
 	e.judgeTx(&s.Tx)
+	passFinding(s)
 	if s.Tx.Verdict > s.Verdict {
 		s.Verdict = s.Tx.Verdict
 	}
@@ -452,6 +453,9 @@ type Section struct {
 	Position string
 	Wrong    bool
 	For      string
+	// NoPass is set when the network does not pass its own band (a
+	// warning finding says so; Tx.InBandBest has the figures).
+	NoPass bool
 	// PartFaults is the single-part fault analysis, when asked for.
 	PartFaults *PartFaults
 	Findings   []ratings.Finding

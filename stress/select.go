@@ -67,6 +67,9 @@ func AuditNetlist(c *circuits.Circuit, rs *ratings.Set, cond Conditions, allowUn
 			return nil, nil, err
 		}
 		sec.Position, sec.Wrong, sec.For = v.Position, v.Wrong, v.For
+		if v.Wrong {
+			dropPassFinding(sec) // a wrong band is meant not to pass
+		}
 		if !v.Wrong {
 			list, err := eng.PartFaultList()
 			if err != nil {

@@ -1,8 +1,11 @@
 package stress
 
 import (
+	"fmt"
 	"math"
 	"math/cmplx"
+	"strconv"
+	"strings"
 
 	"rfstress/circuits"
 	"rfstress/ratings"
@@ -33,7 +36,12 @@ type TxView struct {
 type TxResult struct {
 	Worst  TxView
 	ByKind [nKind]TxView // worst per kind of case; Case −1 when none
-	Limit  float64       // tx-swr-max; 0 when not set
+	// InBandBest is the lowest SWR the transmitter sees over the band's own
+	// carriers with the antenna port matched (Case −1 when none): a filter
+	// or matched tuner passes its band, so a high figure here means the
+	// network as written does not, as after a unit slip (390n for 390p).
+	InBandBest TxView
+	Limit      float64 // tx-swr-max; 0 when not set
 	// Verdict against Limit (ok or fail; ok when no limit is set): the
 	// limit is the transmitter's own protection threshold, used as is.
 	Verdict ratings.Verdict
@@ -84,6 +92,7 @@ func (w *workspace) keepTx(v TxView, kind CaseKind) {
 func (w *workspace) resetTx() {
 	w.tx = TxResult{}
 	w.tx.Worst.Case = -1
+	w.tx.InBandBest.Case = -1
 	for k := range w.tx.ByKind {
 		w.tx.ByKind[k].Case = -1
 	}
@@ -95,6 +104,54 @@ func (e *Engine) txCase(w *workspace, ci int, kind CaseKind, alpha complex128) {
 	v := e.txAt(w.carr, alpha, scale)
 	v.Case = ci
 	w.keepTx(v, kind)
+	if kind == Matched && !e.Case(ci).OffBand {
+		if b := &w.tx.InBandBest; b.Case < 0 || v.SWR < b.SWR {
+			*b = v
+		}
+	}
+}
+
+// NoPassSWR is the lowest SWR over the band, antenna matched, above which
+// a network is said not to pass its own carrier: SWR 3 reflects a quarter
+// of the power, more than any usual filter ripple (a 1 dB Chebyshev
+// reaches 2.66 at worst, common practice) or tuner match leaves.
+const NoPassSWR = 3
+
+// passFinding warns when the network does not pass its own band.
+func passFinding(s *Section) {
+	b := s.Tx.InBandBest
+	if s.Wrong || b.Case < 0 || !(b.SWR > NoPassSWR) {
+		return
+	}
+	s.NoPass = true
+	s.Findings = append(append([]ratings.Finding(nil), s.Findings...), ratings.Finding{Pos: circuits.Pos{File: s.File, Line: 1, Col: 1}, Severity: "warning",
+		Text: fmt.Sprintf(noPassText+": with the antenna port matched the transmitter sees SWR %s at best (%s), %.0f %% of the forward power reflected; check the values and their units (n for p, u for n), the nodes, and a tuner's settings",
+			swrWords(b.SWR), s.Case(b.Case).Describe(), 100*b.Gamma*b.Gamma)})
+}
+
+// dropPassFinding withdraws passFinding's warning.
+func dropPassFinding(s *Section) {
+	if !s.NoPass {
+		return
+	}
+	s.NoPass = false
+	var keep []ratings.Finding
+	for _, f := range s.Findings {
+		if !strings.HasPrefix(f.Text, noPassText) {
+			keep = append(keep, f)
+		}
+	}
+	s.Findings = keep
+}
+
+const noPassText = "the network does not pass its own band"
+
+// swrWords is an SWR for a sentence: beyond 100:1 the digits mean nothing.
+func swrWords(v float64) string {
+	if v > 100 {
+		return "above 100"
+	}
+	return strconv.FormatFloat(v, 'f', 2, 64)
 }
 
 // txCircle records the worst the transmitter sees over the SWR circle:
