@@ -15,13 +15,14 @@ type BandLU struct {
 	n, kl, ku, w int
 	a            []complex128
 	piv          []int
+	inv          []complex128 // 1/U[k][k]
 }
 
 // NewBandLU allocates room for an n×n matrix with kl sub- and ku
 // super-diagonals.
 func NewBandLU(n, kl, ku int) *BandLU {
 	w := 2*kl + ku + 1
-	return &BandLU{n: n, kl: kl, ku: ku, w: w, a: make([]complex128, n*w), piv: make([]int, n)}
+	return &BandLU{n: n, kl: kl, ku: ku, w: w, a: make([]complex128, n*w), piv: make([]int, n), inv: make([]complex128, n)}
 }
 
 // Size is the number of unknowns.
@@ -82,7 +83,8 @@ func (b *BandLU) Factor() error {
 			m--
 		}
 		rk = rk[:m]
-		inv := 1 / rk[0]
+		inv := recip(rk[0])
+		b.inv[k] = inv
 		for i := k + 1; i <= last; i++ {
 			off := i*w + k - i + kl
 			ri := a[off : off+m]
@@ -122,7 +124,7 @@ func (b *BandLU) Solve(x []complex128) {
 		for j := 1; j < len(row); j++ {
 			s -= row[j] * x[i+j]
 		}
-		x[i] = s / row[0]
+		x[i] = s * b.inv[i]
 	}
 }
 
