@@ -222,7 +222,7 @@ func (p *pdfw) audited() {
 			lim = s.LimitPart + " " + QuantityLabel(s.LimitQ)
 		}
 		rows = append(rows, trow{
-			cells:      []tcell{{s: Headline(s.File), bold: true}, tc(Headline(joinNonEmpty(" — ", s.Title, sectionLabel(s)))), tv(s.Verdict), tc(FormatPower(s.SafeW)), tc(lim)},
+			cells:      []tcell{{s: Headline(s.File), bold: true}, tc(joinNonEmpty(" — ", Headline(s.Title), circuits.Escape(sectionLabel(s)))), tv(s.Verdict), tc(FormatPower(s.SafeW)), tc(lim)},
 			detail:     []string{"SHA-256 " + s.SHA256},
 			detailMono: true,
 		})
@@ -277,6 +277,9 @@ func (p *pdfw) conditions() {
 				}
 			}
 			own = append(own, fmt.Sprintf("%d cases (carrier × antenna-port load)", s.NumCases))
+			if l := sectionLabel(s); l != "" { // a bank's positions share one file name
+				own = append([]string{circuits.Escape(l)}, own...)
+			}
 			rows = append(rows, trow{cells: []tcell{{s: Headline(s.File), bold: true}, tc(strings.Join(own, "\n"))}})
 		}
 		p.sub("Conditions of each file", 24)

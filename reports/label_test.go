@@ -1,0 +1,33 @@
+package reports
+
+import (
+	"strings"
+	"testing"
+)
+
+// TestPositionLabelsNotCut: a switched bank's sections share one file name
+// and one title; only the position label tells "position B20" from "wrong
+// band selected: position B20 at the carriers of position B40". The file
+// table and the conditions table must carry the whole label (a long title
+// is shortened, never the label after it).
+func TestPositionLabelsNotCut(t *testing.T) {
+	var srcs []netSrc
+	for _, s := range demoSources(t) {
+		if strings.HasPrefix(s.name, "relay-bank") {
+			srcs = append(srcs, s)
+		}
+	}
+	if len(srcs) == 0 {
+		t.Skip("example station absent")
+	}
+	text := strings.Join(strings.Fields(pdfText(t, render(t, demoDoc(t, srcs, 0)))), " ")
+	for _, want := range []string{
+		"wrong band selected: position B20 at the carriers of position B40",
+		"wrong band selected: position B40 at the carriers of position B20",
+	} {
+		// section page heading, file table and conditions table: three times
+		if n := strings.Count(text, want); n < 3 {
+			t.Errorf("%q shown whole %d times, want at least 3 (section page, file table, conditions table)", want, n)
+		}
+	}
+}
