@@ -57,6 +57,12 @@ func sectionLabel(s *stress.Section) string {
 	return "position " + s.Position
 }
 
+// sectionHead is a section's file name with its position label, for
+// headings where a switched bank's positions would otherwise read alike.
+func sectionHead(s *stress.Section) string {
+	return joinNonEmpty(" — ", Headline(s.File), circuits.Escape(sectionLabel(s)))
+}
+
 func joinNonEmpty(sep string, parts ...string) string {
 	var out []string
 	for _, p := range parts {

@@ -20,14 +20,23 @@ func TestPositionLabelsNotCut(t *testing.T) {
 	if len(srcs) == 0 {
 		t.Skip("example station absent")
 	}
-	text := strings.Join(strings.Fields(pdfText(t, render(t, demoDoc(t, srcs, 0)))), " ")
+	pdf := pdfText(t, render(t, demoDoc(t, srcs, 0)))
+	text := strings.Join(strings.Fields(pdf), " ")
 	for _, want := range []string{
 		"wrong band selected: position B20 at the carriers of position B40",
 		"wrong band selected: position B40 at the carriers of position B20",
 	} {
-		// section page heading, file table and conditions table: three times
-		if n := strings.Count(text, want); n < 3 {
-			t.Errorf("%q shown whole %d times, want at least 3 (section page, file table, conditions table)", want, n)
+		// section page heading, file table, conditions table, margin chart
+		if n := strings.Count(text, want); n < 4 {
+			t.Errorf("%q shown whole %d times, want at least 4 (section page, file table, conditions table, margin chart)", want, n)
 		}
+	}
+	// the four positions come from one netlist: it is listed once
+	if n := strings.Count(text, "Netlists as audited"); n != 1 {
+		t.Fatalf("%d listing headings", n)
+	}
+	listing := text[strings.Index(text, "Netlists as audited"):]
+	if n := strings.Count(listing, "SHA-256"); n != 1 {
+		t.Errorf("one netlist listed %d times", n)
 	}
 }

@@ -72,7 +72,7 @@ func (p *pdfw) marginChart() {
 					u := pr.Name + " " + QuantityLabel(q) + " " + FormatQ(q, st.Value) + " — no rating: needs " +
 						strings.TrimPrefix(UpgradeText(stress.Upgrade{Stress: st}), "rated ") + " (" + st.Limit.Basis + ")"
 					if multi {
-						u = Headline(s.File) + ": " + u
+						u = sectionHead(s) + ": " + u
 					}
 					unrated = append(unrated, u)
 				}
@@ -84,7 +84,7 @@ func (p *pdfw) marginChart() {
 		anyBar = true
 		title := ""
 		if multi {
-			title = Headline(s.File)
+			title = sectionHead(s)
 		}
 		p.barGroup(title, bars)
 	}

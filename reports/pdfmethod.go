@@ -118,7 +118,12 @@ func (p *pdfw) listings() {
 	const size = 6.8
 	const lh = 3.0
 	const numW = 9.0
+	listed := map[string]bool{} // a switched bank's positions share one source
 	for _, s := range p.doc.Bank.Sections {
+		if listed[s.File+"\x00"+s.SHA256] {
+			continue
+		}
+		listed[s.File+"\x00"+s.SHA256] = true
 		p.sub(Headline(s.File), 12)
 		p.mono(6.3)
 		p.text(colMuted)

@@ -331,7 +331,7 @@ func (p *pdfw) upgrades() {
 			if multi {
 				file := tcell{}
 				if i == 0 { // a file's rows form one group under its name
-					file = tc(Headline(s.File))
+					file = tc(sectionHead(s))
 				}
 				cells = append(cells, file)
 			}
