@@ -80,38 +80,53 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 	}
 	s.F, s.Zs, s.Zcm = f, c.Zs, c.ZCM
 	for k := 0; k < 2; k++ {
-		x := w.x
-		for i := range x {
-			x[i] = 0
-		}
-		if k == 0 {
-			x[c.In] = 1 / c.Zs
-		} else {
-			// 1 A into the load's terminals, out of OutB when balanced
-			x[c.Out] = 1
-			if c.OutB >= 0 {
-				x[c.OutB] = -1
-			}
-		}
-		w.fz.Solve(x)
-		c.partStates(x, f, w.parts, false)
-		for i, ps := range w.parts {
-			s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
-			s.V2[k][i], s.I2[k][i], s.It[k][i] = ps.V2, ps.I2, ps.It
-		}
-		copy(s.Node[k], x[:len(c.Nodes)])
-		s.Vin[k] = x[c.In]
-		s.Cm[k] = c.CommonModeI(x)
-		if k == 0 {
-			s.Voc = c.VOut(x)
-		} else {
-			s.Zth = c.VOut(x)
-		}
+		w.solveInto(s, f, k, false)
 	}
 	for i := range c.Elements {
 		s.R[i] = c.Elements[i].LossR(f)
 	}
 	return nil
+}
+
+// solveInto solves excitation k (0: 1 V of EMF at the input; 1: 1 A into
+// the antenna port) with the current factorisation and stores the states
+// in s; refine adds one step of iterative refinement (FillChecked).
+func (w *SplitWork) solveInto(s *Split, f float64, k int, refine bool) {
+	c := w.fz.C
+	x := w.x
+	for i := range x {
+		x[i] = 0
+	}
+	if k == 0 {
+		x[c.In] = 1 / c.Zs
+	} else {
+		// 1 A into the load's terminals, out of OutB when balanced
+		x[c.Out] = 1
+		if c.OutB >= 0 {
+			x[c.OutB] = -1
+		}
+	}
+	var b []complex128
+	if refine {
+		b = append([]complex128(nil), x...)
+	}
+	w.fz.Solve(x)
+	if refine {
+		w.fz.refine(b, x)
+	}
+	c.partStates(x, f, w.parts, false)
+	for i, ps := range w.parts {
+		s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
+		s.V2[k][i], s.I2[k][i], s.It[k][i] = ps.V2, ps.I2, ps.It
+	}
+	copy(s.Node[k], x[:len(c.Nodes)])
+	s.Vin[k] = x[c.In]
+	s.Cm[k] = c.CommonModeI(x)
+	if k == 0 {
+		s.Voc = c.VOut(x)
+	} else {
+		s.Zth = c.VOut(x)
+	}
 }
 
 // Alpha is the weight of the unit-injection response for a load; for 1 V

@@ -25,34 +25,8 @@ func (w *SplitWork) Suspects(f float64) []string { return w.fz.C.suspects(f) }
 // refill solves both excitations again, each with one step of iterative
 // refinement, into s (the factorisation of Fill is reused).
 func (w *SplitWork) refill(s *Split, f float64) {
-	c := w.fz.C
-	n := len(w.x)
 	for k := 0; k < 2; k++ {
-		b := make([]complex128, n)
-		if k == 0 {
-			b[c.In] = 1 / c.Zs
-		} else {
-			b[c.Out] = 1
-			if c.OutB >= 0 {
-				b[c.OutB] = -1
-			}
-		}
-		x := append([]complex128(nil), b...)
-		w.fz.Solve(x)
-		w.fz.refine(b, x)
-		c.partStates(x, f, w.parts, false)
-		for i, ps := range w.parts {
-			s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
-			s.V2[k][i], s.I2[k][i], s.It[k][i] = ps.V2, ps.I2, ps.It
-		}
-		copy(s.Node[k], x[:len(c.Nodes)])
-		s.Vin[k] = x[c.In]
-		s.Cm[k] = c.CommonModeI(x)
-		if k == 0 {
-			s.Voc = c.VOut(x)
-		} else {
-			s.Zth = c.VOut(x)
-		}
+		w.solveInto(s, f, k, true)
 	}
 }
 

@@ -315,11 +315,7 @@ func (p *pdfw) responsePlot(fp *FilterPlot) {
 			worst = -h.S21dB
 		}
 	}
-	yMax := math.Max(20, math.Ceil(math.Min(worst, 120)/10)*10)
-	step := 10.0
-	if yMax > 60 {
-		step = 20
-	}
+	yMax, step := lossScale(worst)
 	p.room(plotTopSp + plotH + 34)
 	top := f.GetY() + plotTopSp
 	bottom := top + plotH
@@ -728,4 +724,15 @@ func dbText(v float64) string {
 		return "—"
 	}
 	return minus(num(v, 1)) + " dB"
+}
+
+// lossScale is a loss axis from 0 dB down to a round figure past the
+// largest loss shown (at most 120 dB), with its grid step.
+func lossScale(worst float64) (yMax, step float64) {
+	yMax = math.Max(20, math.Ceil(math.Min(worst, 120)/10)*10)
+	step = 10
+	if yMax > 60 {
+		step = 20
+	}
+	return yMax, step
 }

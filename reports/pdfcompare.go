@@ -113,11 +113,7 @@ func (p *pdfw) compareOverlay(c *stress.Comparison) {
 			}
 		}
 	}
-	yMax := math.Max(20, math.Ceil(math.Min(worst, 120)/10)*10)
-	step := 10.0
-	if yMax > 60 {
-		step = 20
-	}
+	yMax, step := lossScale(worst)
 	p.room(plotTopSp + plotH + 24)
 	top := f.GetY() + plotTopSp
 	bottom := top + plotH
