@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"math"
 	"strings"
 
 	"rfstress/circuits"
@@ -54,11 +55,16 @@ type SolveView struct {
 	// Findings are sentences about the solve itself (a power balance that
 	// does not close).
 	Findings []string `json:"findings,omitempty"`
+	// Cautions are the safety sentences of the text (SolveCautions);
+	// WriteSolveJSON fills them.
+	Cautions []string `json:"cautions,omitempty"`
 }
 
 // WriteSolveJSON writes the view as indented JSON with stable key order.
 func WriteSolveJSON(w io.Writer, v *SolveView) error {
-	return writeJSON(w, v)
+	c := *v
+	c.Cautions = SolveCautions(v)
+	return writeJSON(w, &c)
 }
 
 func writeJSON(w io.Writer, v any) error {
@@ -113,7 +119,39 @@ func WriteSolveText(w io.Writer, v *SolveView) error {
 	for _, f := range v.Findings {
 		fmt.Fprintf(w, "  FINDING: %s\n", f)
 	}
+	for _, c := range SolveCautions(v) {
+		fmt.Fprintf(w, "\n  CAUTION: %s\n", c)
+	}
 	return nil
+}
+
+// SolveCautionV is the peak voltage across a part from which solve warns:
+// the audit's default --caution-volts.
+const SolveCautionV = 300
+
+// SolveCautions are the safety sentences a solve calls for: RF of
+// SolveCautionV or more across a part, and DC at or above LethalDC.
+func SolveCautions(v *SolveView) []string {
+	var out []string
+	var hot, dc *SolvePart
+	for i := range v.Components {
+		p := &v.Components[i]
+		if p.Vpk >= SolveCautionV && (hot == nil || p.Vpk > hot.Vpk) {
+			hot = p
+		}
+		if p.Vdc != nil && math.Abs(*p.Vdc) >= LethalDC && (dc == nil || math.Abs(*p.Vdc) > math.Abs(*dc.Vdc)) {
+			dc = p
+		}
+	}
+	if hot != nil {
+		out = append(out, fmt.Sprintf("%s RF peak across %s at %s — RF burns and arcing; never touch or adjust while transmitting (SAFETY.md)",
+			circuits.FormatSI(hot.Vpk, "V"), hot.Name, circuits.FormatSI(v.PowerW, "W")))
+	}
+	if dc != nil {
+		out = append(out, fmt.Sprintf("LETHAL DC: %s across %s; switch off, wait for the bleeder, and ground every high-voltage point with a grounding stick before touching (SAFETY.md)",
+			circuits.FormatSI(math.Abs(*dc.Vdc), "V"), dc.Name))
+	}
+	return out
 }
 
 func heading(file, title string) string {
