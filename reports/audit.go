@@ -587,7 +587,7 @@ func bindingText(s *stress.Section, p *stress.PartResult) string {
 	if best.Limit.Abs <= 0 {
 		c = best.Case
 	}
-	out := string(best.Quantity) + ": " + s.Case(c).Describe()
+	out := QuantityLabel(best.Quantity) + ": " + s.Case(c).Describe()
 	if markedByAdvice(p) {
 		out += "; marginal only by the heating guide (advice)"
 	}

@@ -28,7 +28,7 @@ func TestTextFitsColumns(t *testing.T) {
 			t.Errorf("line %d is %d columns: %q", i+1, n, l)
 		}
 	}
-	for _, want := range []string{"C12", "L2", "binding quantity and case", "vpk: "} {
+	for _, want := range []string{"C12", "L2", "binding quantity and case", "peak voltage: "} {
 		if !strings.Contains(out, want) {
 			t.Errorf("80-column text lacks %q", want)
 		}
