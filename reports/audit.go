@@ -384,7 +384,7 @@ func writeSectionText(w io.Writer, s *stress.Section, width int) {
 	for _, l := range SectionConditions(s) {
 		wrapLine(w, width, "   ", "     ", l)
 	}
-	fmt.Fprintf(w, "   %d cases\n\n", s.NumCases)
+	fmt.Fprintf(w, "   %s\n\n", casesText(s.NumCases))
 	// RMS current, dissipation and temperature are taken at average power
 	t := newTable("part", "value", "peak V", "RMS I", "dissip.", "flux", "temp.", "use", "verdict", "binding quantity and case")
 	t.sub = []string{"", "", "", "avg", "avg", "", "avg"}

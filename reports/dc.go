@@ -168,3 +168,11 @@ func ConsequenceText(c stress.Consequence) string {
 func ShortedSupplyText(r *stress.FaultRun) string {
 	return fmt.Sprintf("%s shorts supply %s: its fuse or current limit decides what happens next, and this fault's DC figures say only that", r.Fault, r.ShortedSupply)
 }
+
+// casesText counts the audited cases in words: "1 case", "75 cases".
+func casesText(n int) string {
+	if n == 1 {
+		return "1 case"
+	}
+	return fmt.Sprintf("%d cases", n)
+}

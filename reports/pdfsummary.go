@@ -259,7 +259,7 @@ func (p *pdfw) conditions() {
 		for _, l := range common {
 			p.bullet(8.5, l)
 		}
-		p.bullet(8.5, fmt.Sprintf("%d cases (carrier × antenna-port load)", secs[0].NumCases))
+		p.bullet(8.5, casesText(secs[0].NumCases)+" (carrier × antenna-port load)")
 	} else {
 		if len(common) > 0 {
 			p.sub("Conditions shared by every file", 10)
@@ -276,7 +276,7 @@ func (p *pdfw) conditions() {
 					own = append(own, l)
 				}
 			}
-			own = append(own, fmt.Sprintf("%d cases (carrier × antenna-port load)", s.NumCases))
+			own = append(own, casesText(s.NumCases)+" (carrier × antenna-port load)")
 			if l := sectionLabel(s); l != "" { // a bank's positions share one file name
 				own = append([]string{circuits.Escape(l)}, own...)
 			}

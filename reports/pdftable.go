@@ -474,8 +474,8 @@ func (p *pdfw) sectionPages(s *stress.Section, fp *FilterPlot) {
 	for _, l := range SectionConditions(s) {
 		p.para(8.5, l)
 	}
-	nodeLine := fmt.Sprintf("%d cases audited; highest node voltage %s peak at node %s (%s)",
-		s.NumCases, circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, caseText(s, s.MaxNodeCase))
+	nodeLine := fmt.Sprintf("%s audited; highest node voltage %s peak at node %s (%s)",
+		casesText(s.NumCases), circuits.FormatSI(s.MaxNodeVpk, "V"), s.MaxNodeAt, caseText(s, s.MaxNodeCase))
 	if s.MaxNodeVdc > 0 {
 		nodeLine += fmt.Sprintf(", %s of it DC; highest DC %s at node %s",
 			circuits.FormatSI(s.MaxNodeVdc, "V"), circuits.FormatSI(s.MaxDCV, "V"), s.MaxDCAt)

@@ -36,3 +36,12 @@ func TestFormatSWRCapsHugeFigures(t *testing.T) {
 		}
 	}
 }
+
+// One audited case reads "1 case" (English grammar), more read "N cases".
+func TestCasesText(t *testing.T) {
+	for n, want := range map[int]string{1: "1 case", 75: "75 cases", 0: "0 cases"} {
+		if got := casesText(n); got != want {
+			t.Errorf("casesText(%d) = %q, want %q", n, got, want)
+		}
+	}
+}
