@@ -27,7 +27,7 @@ type FilterPlot struct {
 	// stress against frequency: the audit one carrier at a time
 	Use *stress.BandUse
 	// the antenna-port loads audited at each carrier, and the resistance
-	// the load chart is drawn for (the transmitter port's)
+	// the load chart is drawn for (the antenna port's)
 	Loads []stress.Case
 	R0    float64
 }

@@ -148,7 +148,7 @@ func buildReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64, 
 		}
 		fp := reports.FilterPlot{Sweep: e.Sweep(240), BandLo: s.Conditions.BandLo,
 			BandHi: s.Conditions.BandHi, Harmonics: s.Harmonics, Extra: s.Conditions.CarrierAlso,
-			Loads: e.LoadSet(), R0: real(e.C.Zin)}
+			Loads: e.LoadSet(), R0: chartR0(e.C)}
 		if u, err := e.BandUse(21); err == nil {
 			fp.Use = u
 		}
@@ -172,4 +172,15 @@ func reportDate() (time.Time, error) {
 		return time.Time{}, usagef("SOURCE_DATE_EPOCH=%s is not a whole number of seconds since 1970-01-01 UTC up to year 9999 (reproducible-builds.org); unset it or fix it", circuits.Clip(s))
 	}
 	return time.Unix(n, 0).UTC(), nil
+}
+
+// chartR0 is the resistance the antenna-port load chart is drawn for: the
+// antenna port's own, so its matched load sits at the centre (a valve's
+// 2500 Ω plate would push every 50 Ω load to the rim); the transmitter
+// port's when the antenna port's has no positive resistance.
+func chartR0(c *circuits.Circuit) float64 {
+	if r := real(c.Zout); r > 0 {
+		return r
+	}
+	return real(c.Zin)
 }
