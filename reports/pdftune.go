@@ -231,7 +231,7 @@ func (p *pdfw) tuneTable(v *TuneView) {
 	}
 	p.text(colMuted)
 	p.para(7.5, fmt.Sprintf("Loss is the share of the power into the network lost in its parts; V peak is the largest part voltage at %s available, matched. "+
-		"CAUTION: tuner parts carry kilovolts; never adjust while transmitting.", circuits.FormatSI(v.PowerW, "W")))
+		"CAUTION: %s", circuits.FormatSI(v.PowerW, "W"), TuneCaution(v)))
 	p.text(colInk)
 }
 

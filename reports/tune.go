@@ -125,7 +125,7 @@ func WriteTuneText(w io.Writer, v *TuneView) error {
 	if n := v.Unmatched(); n > 0 {
 		fmt.Fprintf(w, "\n  %d of %d loads cannot be matched within the parts' ranges: best SWR and the limit that stopped it are shown;\n  they are not audited, and transmitting into them is outside this check\n", n, len(v.Rows))
 	}
-	fmt.Fprintf(w, "\n  CAUTION: tuner parts carry kilovolts at these settings; never adjust while transmitting (SAFETY.md).\n")
+	fmt.Fprintf(w, "\n  CAUTION: %s\n", TuneCaution(v))
 	return nil
 }
 
@@ -292,4 +292,20 @@ func tuneRow(c tuning.Case, r tuning.Result, power float64) TuneRow {
 	return TuneRow{FrequencyHz: r.F, Load: r.Load, Ring: c.Load.Ring, Matched: r.Matched,
 		Settings: r.Best.Values, SWR: r.Best.SWR, Zin: r.Best.Zin, LossFrac: r.Best.LossFrac, Eff: r.Best.Eff,
 		VpkW: r.Best.VpkPerRtW * math.Sqrt(power), Limit: r.Limit}
+}
+
+// TuneCaution names the highest peak voltage of the chart: a tuner's parts
+// carry it while transmitting, and far more when it is adjusted off match.
+func TuneCaution(v *TuneView) string {
+	top := 0.0
+	for _, r := range v.Rows {
+		if r.VpkW > top {
+			top = r.VpkW
+		}
+	}
+	if !(top > 0) {
+		return "tuner parts can carry kilovolts; never adjust while transmitting (SAFETY.md)."
+	}
+	return fmt.Sprintf("up to %s peak on the tuner's parts in this chart at %s; more off match. RF burns and arcing: never touch or adjust while transmitting (SAFETY.md).",
+		circuits.FormatSI(top, "V"), circuits.FormatSI(v.PowerW, "W"))
 }
