@@ -96,7 +96,7 @@ func runTemplate(args []string, stdout, stderr io.Writer) (int, error) {
 	switch shape := fs.Arg(0); shape {
 	case "lowpass", "bandpass":
 		if *poles < 3 || *poles > 9 || *poles%2 == 0 {
-			return exitUsage, usagef("--poles %d: expected an odd number from 3 to 9 (equal source and load need an odd Chebyshev)", *poles)
+			return exitUsage, usagef("--poles %d: expected an odd number from 3 to 9 (the templates begin and end with a shunt element, which takes an odd count; an even Chebyshev also cannot have equal source and load)", *poles)
 		}
 		var g []float64
 		name := ""
