@@ -500,10 +500,50 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 	conn := make([]int, nCol) // connections at each bus, for junction dots
 	symCentre := map[string]spt{}
 	spanOf := map[string][2]float64{} // series parts: the x extent of their gap
+	// clearOf is the x at which a raised series part and its label sit:
+	// the middle of its span, unless a riser of a part in a higher lane
+	// would run through the symbol or the label there; then the middle of
+	// the widest stretch of the span between such risers, if it fits.
+	clearOf := func(sp *span, w float64) float64 {
+		mid := (sp.x1 + sp.x2) / 2
+		if sp.lane == 0 {
+			return mid
+		}
+		w = math.Max(w, schSymLen+3)
+		xs := []float64{sp.x1, sp.x2}
+		hit := false
+		for _, o := range spans {
+			if o == sp || o.lane <= sp.lane {
+				continue
+			}
+			for _, x := range []float64{o.x1, o.x2} {
+				if x > sp.x1 && x < sp.x2 {
+					xs = append(xs, x)
+					if math.Abs(x-mid) < w/2+0.5 {
+						hit = true
+					}
+				}
+			}
+		}
+		if !hit {
+			return mid
+		}
+		sort.Float64s(xs)
+		best, at := 0.0, mid
+		for i := 1; i < len(xs); i++ {
+			if g := xs[i] - xs[i-1]; g > best {
+				best, at = g, (xs[i]+xs[i-1])/2
+			}
+		}
+		if best < w+1 {
+			return mid
+		}
+		return at
+	}
 	for _, sp := range spans {
 		yl := y0 - float64(sp.lane)*schLane
 		sp.yl = yl
-		mid := (sp.x1 + sp.x2) / 2
+		mid := clearOf(sp, labelW(sp.p)+2)
 		a, b := spt{mid - schSymLen/2 - 1.5, yl}, spt{mid + schSymLen/2 + 1.5, yl}
 		if sp.lane > 0 {
 			sc.wires = append(sc.wires, [2]spt{{sp.x1, y0}, {sp.x1, yl}}, [2]spt{{sp.x2, y0}, {sp.x2, yl}})
@@ -656,8 +696,19 @@ func LayoutSchematic(s *stress.Section, measure measureFunc) *Schematic {
 			c1, c2 = spt{math.Min(xd, sh.x), 0}, spt{math.Max(xd, sh.x), 0}
 		}
 		sc.links = append(sc.links, slink{path: path})
-		sc.labels = append(sc.labels, slabel{x: (c1.x + c2.x) / 2, y: ya + 2.6, s: k.Name + " k " + num(k.K, 3),
-			size: schStrSize - 0.5, col: colMuted, anchor: 'C'})
+		kl := slabel{x: (c1.x + c2.x) / 2, y: ya + 2.6, s: k.Name + " k " + num(k.K, 3),
+			size: schStrSize - 0.5, col: colMuted, anchor: 'C'}
+		// centred under the path, else flush with either end: the first
+		// place no wire runs through
+		for _, alt := range []slabel{kl, {x: math.Max(c1.x, c2.x) - 1, anchor: 'R'}, {x: math.Min(c1.x, c2.x) + 1, anchor: 'L'}} {
+			try := kl
+			try.x, try.anchor = alt.x, alt.anchor
+			if !wireThrough(sc.wires, try.box(measure)) {
+				kl = try
+				break
+			}
+		}
+		sc.labels = append(sc.labels, kl)
 	}
 	sc.normalise(measure)
 	return sc
@@ -742,4 +793,19 @@ func (sc *Schematic) Labels() []string {
 		out = append(out, l.s)
 	}
 	return out
+}
+
+// wireThrough reports whether a vertical wire runs through a box
+// [x0 y0 x1 y1] (0.2 mm in from its edges: a stroke's half width).
+func wireThrough(wires [][2]spt, bb [4]float64) bool {
+	for _, w := range wires {
+		a, b := w[0], w[1]
+		if a.x != b.x {
+			continue
+		}
+		if a.x > bb[0]+0.2 && a.x < bb[2]-0.2 && math.Min(a.y, b.y) < bb[3]-0.2 && math.Max(a.y, b.y) > bb[1]+0.2 {
+			return true
+		}
+	}
+	return false
 }
