@@ -72,7 +72,7 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 	}
 	t.write(w)
 	if f := v.Fit; f != nil {
-		fmt.Fprintf(w, "\n  Q fit (--fit %s) to S21 and S11 at %d measured points, %s to %s\n", v.FitBy, f.Points,
+		fmt.Fprintf(w, "\n  Q fit (--fit %s) to S21 and S11 at %s, %s to %s\n", v.FitBy, pointsText(f.Points),
 			circuits.FormatHz(f.Lo), circuits.FormatHz(f.Hi))
 		t = newTable("coil(s)", "Q factor", "± 1σ", "fitted Q at "+circuits.FormatHz(f.FitAt))
 		t.leftCols = 1
@@ -96,7 +96,18 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 		fmt.Fprintf(w, "  RMS residual of S: %s before, %s after\n", num(f.RMSBefore, 4), num(f.RMSAfter, 4))
 	}
 	if v.Calibrated != "" {
+		kept := 0
+		if v.Fit != nil {
+			for _, g := range v.Fit.Groups {
+				if sigmaText(g) == "not determined" {
+					kept++
+				}
+			}
+		}
 		fmt.Fprintf(w, "  calibrated netlist written to %s; audit it like any netlist\n", circuits.Escape(v.Calibrated))
+		if kept > 0 {
+			fmt.Fprintf(w, "  %d of its factors not determined: not applied, their coils keep the Q as written\n", kept)
+		}
 	}
 	return nil
 }
@@ -201,4 +212,13 @@ func sigmaText(g stress.FitGroup) string {
 		return "not determined"
 	}
 	return num(g.Sigma, 3)
+}
+
+// pointsText counts measured frequencies: "1 measured point", "9 measured
+// points".
+func pointsText(n int) string {
+	if n == 1 {
+		return "1 measured point"
+	}
+	return fmt.Sprintf("%d measured points", n)
 }

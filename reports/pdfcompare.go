@@ -59,9 +59,9 @@ func WriteComparePDF(w io.Writer, v *CompareView, tool string, date time.Time) e
 	}
 	if fit := v.Fit; fit != nil {
 		p.sub("Q fitted to the measurement", 20)
-		p.para(8.5, fmt.Sprintf("Least-squares fit of Q scale factors (--fit %s) to S21 and S11 at %d measured points from %s to %s; "+
+		p.para(8.5, fmt.Sprintf("Least-squares fit of Q scale factors (--fit %s) to S21 and S11 at %s from %s to %s; "+
 			"uncertainty from the fit's curvature (one standard deviation). RMS residual %s before, %s after.",
-			v.FitBy, fit.Points, circuits.FormatHz(fit.Lo), circuits.FormatHz(fit.Hi), num(fit.RMSBefore, 4), num(fit.RMSAfter, 4)))
+			v.FitBy, pointsText(fit.Points), circuits.FormatHz(fit.Lo), circuits.FormatHz(fit.Hi), num(fit.RMSBefore, 4), num(fit.RMSAfter, 4)))
 		p.mono(8)
 		for _, g := range fit.Groups {
 			f.SetX(marginL)

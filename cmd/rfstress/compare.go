@@ -118,6 +118,12 @@ func runCompare(args []string, stdout, stderr io.Writer) (int, error) {
 			scales := map[string]float64{}
 			header := []string{fmt.Sprintf("calibrated by rfstress compare --fit %s against %s", *fit, circuits.Escape(measPath))}
 			for _, g := range fr.Groups {
+				if g.AtBound || !(g.Sigma < 1e6) {
+					// a factor the fit could not determine is not written:
+					// a Q raised ×50 on no evidence would hide a coil's heat
+					header = append(header, fmt.Sprintf("  %s: Q as written (the fit gave × %.3f but could not determine it: not applied)", strings.Join(g.Parts, ","), g.Scale))
+					continue
+				}
 				for _, p := range g.Parts {
 					scales[p] = g.Scale
 				}
