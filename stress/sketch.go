@@ -35,6 +35,7 @@ type Sketch struct {
 	zero    int64   // values ≤ minPositive (zero stress)
 	inf     int64   // +Inf (no limit binds)
 	n       int64
+	min     float64
 	max     float64
 }
 
@@ -44,7 +45,7 @@ const minPositive = 1e-300
 // NewSketch makes an empty sketch of relative accuracy SketchAlpha.
 func NewSketch() *Sketch {
 	g := (1 + SketchAlpha) / (1 - SketchAlpha)
-	return &Sketch{lnGamma: math.Log(g), max: math.Inf(-1)}
+	return &Sketch{lnGamma: math.Log(g), min: math.Inf(1), max: math.Inf(-1)}
 }
 
 // Add counts one value; NaN is counted as zero (never a stress).
@@ -52,6 +53,9 @@ func (s *Sketch) Add(v float64) {
 	s.n++
 	if v > s.max {
 		s.max = v
+	}
+	if v < s.min {
+		s.min = v
 	}
 	switch {
 	case math.IsInf(v, 1):
@@ -107,6 +111,9 @@ func (s *Sketch) Merge(o *Sketch) {
 	if o.max > s.max {
 		s.max = o.max
 	}
+	if o.min < s.min {
+		s.min = o.min
+	}
 	for j, c := range o.bins {
 		if c != 0 {
 			s.addBin(o.offset+j, c)
@@ -120,8 +127,19 @@ func (s *Sketch) N() int64 { return s.n }
 // Max is the largest value added, exactly.
 func (s *Sketch) Max() float64 { return s.max }
 
-// Quantile estimates the q-quantile (0 ≤ q ≤ 1); NaN when empty.
+// Quantile estimates the q-quantile (0 ≤ q ≤ 1); NaN when empty. The
+// estimate is held within the exact minimum and maximum: a bucket's
+// representative may lie up to α beyond them, and a median shown above
+// the maximum would be read as an error.
 func (s *Sketch) Quantile(q float64) float64 {
+	v := s.quantile(q)
+	if v == v && !math.IsInf(s.min, 0) {
+		v = math.Max(s.min, math.Min(s.max, v))
+	}
+	return v
+}
+
+func (s *Sketch) quantile(q float64) float64 {
 	if s.n == 0 {
 		return math.NaN()
 	}
