@@ -185,10 +185,13 @@ type JSONZ struct {
 
 // JSONAudit is the whole audit document.
 type JSONAudit struct {
-	PowerW     float64         `json:"power_w"`
-	Mode       string          `json:"mode"`
-	AvgRatio   float64         `json:"avg_ratio"`
-	Verdict    string          `json:"verdict"`
+	PowerW   float64 `json:"power_w"`
+	Mode     string  `json:"mode"`
+	AvgRatio float64 `json:"avg_ratio"`
+	Verdict  string  `json:"verdict"`
+	// AdviceOnly: the verdict is marginal only through a guide (the
+	// heating guide): no derated limit or rating is exceeded
+	AdviceOnly bool            `json:"verdict_advice_only,omitempty"`
 	SafePowerW *float64        `json:"safe_power_w"`
 	Limiting   JSONLimiting    `json:"limiting"`
 	Cases      int             `json:"cases"`
@@ -200,6 +203,7 @@ type JSONAudit struct {
 func AuditJSON(b *stress.Bank) *JSONAudit {
 	doc := &JSONAudit{Verdict: b.Verdict.String(), SafePowerW: jsonNum(b.SafeW),
 		Limiting: JSONLimiting{File: b.LimitFile, Component: b.LimitPart, Quantity: string(b.LimitQ)}}
+	doc.AdviceOnly = b.Verdict == ratings.Marginal && adviceOnly(b)
 	for i, s := range b.Sections {
 		if i == 0 {
 			doc.PowerW, doc.Mode, doc.AvgRatio = s.Conditions.PowerW, s.Conditions.Mode, s.Conditions.AvgRatio

@@ -16,7 +16,7 @@ func (p *pdfw) method() {
 	p.newPage("Method and assumptions")
 	p.bullets("Circuit, losses and source",
 		"Each netlist is solved by modified nodal analysis at every carrier frequency and at every harmonic of it; the response plots use the two-port (ABCD and S-parameter) relations.",
-		"Inductor loss is a series resistance R = ωL/Q(f), with Q interpolated log-log between the given points and held beyond them. For a wound inductor the AC resistance of its copper (annealed copper resistivity, with skin effect) is a floor under that loss.",
+		"Inductor loss is a series resistance R = ωL/Q(f), with Q interpolated log-log between the given points and held beyond them. For a wound inductor the AC resistance of its copper (annealed copper resistivity, with skin effect) is a floor under that loss. A coupled winding (transformer, balun) keeps this series form, carried by its load current too: with the Q of the lone winding its loss and temperature are an upper bound.",
 		"Capacitor loss is a series resistance ESR = 1/(ωC·Q(f)), or the esr= given, or tan δ/(ωC) from df=. Parts without a loss figure get a typical Q for their kind and dielectric, chosen on the low side so losses are not understated.",
 		"The transmitter is an EMF behind its port impedance Z. The power given is the available power P, so the EMF is 2√(P·Re Z) RMS. With drive=delivered the EMF is scaled instead until the network takes P (never beyond 1000 times the available power).",
 	)

@@ -38,6 +38,13 @@ audit power=100 mode=cw freq=7.1M swr=1 harmonics=none
 	if !strings.Contains(text, "advice only") || !strings.Contains(text, "marginal only by the heating guide (advice)") {
 		t.Errorf("text does not say the marginal verdict is advice only:\n%s", text)
 	}
+	js := writeFile(t, "out.json", "")
+	if _, _, e := runCLI(t, "audit", net, "--json", js); e != "" && !strings.Contains(e, "CAUTION") {
+		t.Logf("stderr: %s", e)
+	}
+	if b, err := os.ReadFile(js); err != nil || !strings.Contains(string(b), `"verdict_advice_only": true`) {
+		t.Errorf("JSON does not mark the verdict advice only: %s", b)
+	}
 	// A rated limit still reads as before: C3's irms=0.5 A against ≈2.3 A
 	// (I = V/Xc, Xc = 1/(2π·7.1 MHz·680 pF) ≈ 33 Ω, V ≈ 75 V rms) fails.
 	src, err := os.ReadFile(net)
