@@ -280,7 +280,44 @@ func (p *pdfw) multi(w, h float64, s string) {
 }
 
 // split wraps text to lines w wide in the current font.
-func (p *pdfw) split(s string, w float64) []string { return p.f.SplitText(clean(s), w) }
+func (p *pdfw) split(s string, w float64) []string {
+	s = clean(s)
+	if !strings.ContainsAny(s, " \n") && p.f.GetStringWidth(s) > w {
+		return p.splitPath(s, w)
+	}
+	return p.f.SplitText(s, w)
+}
+
+// splitPath breaks a word with no spaces, such as a file path, after a
+// '/', '-', '_' or '.' (not before a short extension) where one falls on
+// the line, so that
+// "testdata/station/lpf-20m.net" wraps as "testdata/station/" and
+// "lpf-20m.net" rather than inside "20m"; a stretch with no such mark is
+// broken where the line ends.
+func (p *pdfw) splitPath(s string, w float64) []string {
+	var out []string
+	rs := []rune(s)
+	for len(rs) > 0 {
+		n, brk := 0, 0
+		for n < len(rs) && p.f.GetStringWidth(string(rs[:n+1])) <= w {
+			n++
+			if strings.ContainsRune("/-_", rs[n-1]) || rs[n-1] == '.' && len(rs)-n > 4 {
+				brk = n
+			}
+		}
+		switch {
+		case n == len(rs):
+			brk = n
+		case n == 0:
+			brk = 1 // a glyph wider than the line: one per line
+		case brk == 0:
+			brk = n
+		}
+		out = append(out, string(rs[:brk]))
+		rs = rs[brk:]
+	}
+	return out
+}
 
 // width is the width of s in the current font.
 func (p *pdfw) width(s string) float64 { return p.f.GetStringWidth(clean(s)) }
