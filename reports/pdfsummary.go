@@ -221,8 +221,12 @@ func (p *pdfw) audited() {
 		if !math.IsInf(s.SafeW, 1) {
 			lim = s.LimitPart + " " + QuantityLabel(s.LimitQ)
 		}
+		title := joinNonEmpty(" — ", Headline(s.Title), circuits.Escape(sectionLabel(s)))
+		if s.NoPass {
+			title += " — CHECK: does not pass its own band (transmitter SWR " + FormatSWR(s.Tx.InBandBest.SWR) + ", antenna matched)"
+		}
 		rows = append(rows, trow{
-			cells:      []tcell{{s: Headline(s.File), bold: true}, tc(joinNonEmpty(" — ", Headline(s.Title), circuits.Escape(sectionLabel(s)))), tv(s.Verdict), tc(FormatPower(s.SafeW)), tc(lim)},
+			cells:      []tcell{{s: Headline(s.File), bold: true}, tc(title), tv(s.Verdict), tc(FormatPower(s.SafeW)), tc(lim)},
 			detail:     []string{"SHA-256 " + s.SHA256},
 			detailMono: true,
 		})

@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/json"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -59,6 +60,21 @@ func TestUnitSlipDoesNotPassQuietly(t *testing.T) {
 	}
 	if len(doc.Sections) != 1 || !doc.Sections[0].NoPass || doc.Sections[0].Best == nil || *doc.Sections[0].Best < 870 {
 		t.Errorf("JSON does not carry the in-band SWR (want ≥ 870) and does_not_pass_band: %s", b)
+	}
+
+	// the PDF's file table says it too, beside the file's verdict
+	pdf := filepath.Join(t.TempDir(), "slip.pdf")
+	if code, _, e := runCLI(t, "audit", slip, "--report", pdf); code == 2 {
+		t.Fatalf("report: %s", e)
+	}
+	if _, err := exec.LookPath("pdftotext"); err == nil {
+		out, err := exec.Command("pdftotext", pdf, "-").Output()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !strings.Contains(strings.Join(strings.Fields(string(out)), " "), "CHECK: does not pass its own band") {
+			t.Errorf("the PDF's file table does not flag the file")
+		}
 	}
 
 	net := filepath.Join("..", "..", "testdata", "station", "lpf-80m.net")
