@@ -282,10 +282,14 @@ func (c *Circuit) stamp(s *System, f float64, load *Load) {
 		e.Model.Stamp(e, s, f)
 	}
 	for _, mu := range c.mutuals {
-		M := mu.k * math.Sqrt(c.Elements[mu.i].Value*c.Elements[mu.j].Value)
+		// complex permeability: the core's loss follows the flux, so
+		// the mutual term carries ωM/Q as the self term carries ωL/Q
+		// (see mutualR); a transformer's load ampere-turns then cancel
+		// in its loss as they do in its core
+		zm := complex(c.mutualR(mu, f), w*mu.k*math.Sqrt(c.Elements[mu.i].Value*c.Elements[mu.j].Value))
 		bi, bj := c.Elements[mu.i].Branch, c.Elements[mu.j].Branch
-		s.Add(bi, bj, complex(0, -w*M))
-		s.Add(bj, bi, complex(0, -w*M))
+		s.Add(bi, bj, -zm)
+		s.Add(bj, bi, -zm)
 	}
 	s.Admit(c.In, -1, 1/c.Zs)
 	if c.cmBranch >= 0 {
@@ -489,8 +493,12 @@ type PartState struct {
 	// It is the terminal current where it differs from I: an inductor
 	// with self-capacitance carries I in its winding (flux, heat) and It
 	// at its terminals. Zero when they are the same.
-	It    complex128
-	Ploss float64 // |I|²·R_loss
+	It complex128
+	// Vloss is a coupled winding's loss voltage, Σ_j R_ij·I_j with the
+	// coupling's ωM/Q (Circuit.mutualR): it dissipates Re(Vloss·I*).
+	// Zero for parts that dissipate |I|²·R_loss.
+	Vloss complex128
+	Ploss float64 // dissipation
 }
 
 func nodeV(x []complex128, i int) complex128 {
@@ -529,6 +537,56 @@ func (c *Circuit) partStates(x []complex128, f float64, out []PartState, withLos
 		out[mu.i].Lambda += M * out[mu.j].I
 		out[mu.j].Lambda += M * out[mu.i].I
 	}
+	if len(c.mutuals) == 0 || f == 0 {
+		return
+	}
+	// a coupled winding's loss voltage: its own ωL/Q·I plus ωM/Q·I of
+	// every winding coupled to it; it dissipates Re(Vloss·I*), and the
+	// windings of one core together dissipate (ω/Q)·Re(Iᴴ·L·I)
+	for _, mu := range c.mutuals {
+		for _, i := range [2]int{mu.i, mu.j} {
+			if out[i].Vloss == 0 {
+				out[i].Vloss = complex(c.Elements[i].LossR(f), 0) * out[i].I
+			}
+		}
+	}
+	for _, mu := range c.mutuals {
+		r := complex(c.mutualR(mu, f), 0)
+		out[mu.i].Vloss += r * out[mu.j].I
+		out[mu.j].Vloss += r * out[mu.i].I
+	}
+	if withLoss {
+		for _, mu := range c.mutuals {
+			for _, i := range [2]int{mu.i, mu.j} {
+				out[i].Ploss = real(out[i].Vloss * conj(out[i].I))
+			}
+		}
+	}
+}
+
+// mutualR is the loss resistance of a coupling at f: ωM/Q with Q the
+// geometric mean of the two windings' Q there (ωL/R of each), the
+// complex-permeability model of a lossy core (µ = µ′ − jµ″, Q = µ′/µ″).
+// With equal Q the matrix of loss resistances is (ω/Q)·L, positive
+// semidefinite like L, so no set of currents dissipates less than zero.
+func (c *Circuit) mutualR(mu mutual, f float64) float64 {
+	a, b := &c.Elements[mu.i], &c.Elements[mu.j]
+	ra, rb := a.LossR(f), b.LossR(f)
+	if !(ra > 0) || !(rb > 0) || f <= 0 {
+		return 0
+	}
+	// ωM/√(Qa·Qb) with Q = ωL/R is k·√(La·Lb)·ω·√(Ra·Rb)/(ω·√(La·Lb))
+	return mu.k * math.Sqrt(ra*rb)
+}
+
+// Coupled reports whether element i is a winding of some coupling.
+func (c *Circuit) Coupled(i int) bool {
+	for _, mu := range c.mutuals {
+		if mu.i == i || mu.j == i {
+			return true
+		}
+	}
+	return false
 }
 
 // Result is a full solve at one frequency with one load.

@@ -7,10 +7,14 @@ import (
 	"testing"
 )
 
-// Coupled coils obey V1 = Z1·I1 + jωM·I2, V2 = jωM·I1 + Z2·I2 with
-// M = k·√(L1·L2), currents entering the dotted ends (any circuit-analysis
-// text, chapter on magnetically coupled circuits; common practice). The
-// package dots each inductor's first-named node.
+// Coupled coils obey V1 = Z1·I1 + Zm·I2, V2 = Zm·I1 + Z2·I2, currents
+// entering the dotted ends (any circuit-analysis text, chapter on
+// magnetically coupled circuits; common practice). For lossless coils
+// Zm = jωM, M = k·√(L1·L2). The package models a lossy core by complex
+// permeability, µ = µ′ − jµ″ with Q = µ′/µ″ (e.g. Snelling, Soft Ferrites,
+// ch. 2; from memory): every inductance of the matrix carries the same
+// loss angle, so for two windings of equal Q, Z = R + jωL with R = ωL/Q
+// and Zm = k·√(Z1·Z2). The package dots each inductor's first-named node.
 
 // coupledPairABCD is the chain matrix of two coupled coils sharing a ground
 // return, from their Z-parameters z11 = Z1, z12 = z21 = ±jωM, z22 = Z2 and
@@ -61,8 +65,9 @@ capacitor C3 c gnd 150p q=800
 		var worst float64
 		for _, f := range testFreqs {
 			w := 2 * math.Pi * f
-			zm := sign * complex(0, w*k*math.Sqrt(l1*l2))
 			z1, z2 := refInductorZ(l1, lossL, f), refInductorZ(l2, lossL, f)
+			zm := sign * complex(k, 0) * cmplx.Sqrt(z1*z2)
+			_ = w
 			pair := coupledPairABCD(z1, z2, zm)
 			tee := coupledPairT(z1, z2, zm)
 			for _, x := range []complex128{pair.A - tee.A, pair.B - tee.B, pair.C - tee.C, pair.D - tee.D} {
@@ -117,8 +122,9 @@ func TestSeriesAidingOpposing(t *testing.T) {
 		text := "port in in z=50\nport out out z=50\ninductor L1 in m 1.5u q=200\ninductor L2 " + tc.ends +
 			" 0.6u q=200\ncoupling K L1 L2 k=0.4\n"
 		_, c := mustParse(t, "series.net", text)
-		// each coil's loss is its own ωL/Q; the mutual term is lossless
-		zser := complex(w*l1/q+w*l2/q, w*tc.leq)
+		// equal Q: every term of the inductance matrix has loss ω·L/Q, so
+		// the series pair is (L1 + L2 ± 2M)·ω·(1/Q + j)
+		zser := complex(w*tc.leq/q, w*tc.leq)
 		want := seriesZ(zser).s21Pozar(50)
 		sp, err := c.TwoPort(f)
 		if err != nil {
@@ -184,4 +190,37 @@ func TestTransformerRatio(t *testing.T) {
 		}
 		t.Logf("N1:N2 = %d:%d, k=%g: Zin off (N1/N2)²·ZL by %.3g (allowed %.3g)", tc.n1, tc.n2, tc.k, e, tol)
 	}
+}
+
+// TestTransformerCoreLoss: a 1:2-turns transformer (10 µH and 40 µH,
+// q=100, k=0.9999) into 200 Ω at 7.1 MHz. Its load ampere-turns cancel in
+// the core, so the core loss is that of the magnetising current: the
+// winding voltage over the shunt loss resistance Q·ωL1,
+// P ≈ |V1|²/(Q·ωL1) (transformer theory, any electrical-machines text;
+// the complex-permeability core gives exactly this plus a leakage term
+// (1 − k²)·(ωL1/Q)·|I1|², here under 0.1 %). Not the |I1|²·ωL1/Q of a
+// lone coil, which is (|I1|·ωL1/|V1|)² ≈ 40× larger here. 2 %.
+func TestTransformerCoreLoss(t *testing.T) {
+	_, c := mustParse(t, "x.net", "port in p z=50\nport out s z=200\ninductor L1 p gnd 10u q=100\ninductor L2 s gnd 40u q=100\ncoupling K L1 L2 k=0.9999\n")
+	const f = 7.1e6
+	r, err := c.Solve(f, 100, Load{Z: 200})
+	if err != nil {
+		t.Fatal(err)
+	}
+	w := 2 * math.Pi * f
+	v1 := cmplx.Abs(r.Parts[0].V)
+	want := v1 * v1 / (100 * w * 10e-6)
+	got := r.Parts[0].Ploss + r.Parts[1].Ploss
+	if math.Abs(got-want) > 0.02*want {
+		t.Errorf("core loss %.4g W, magnetising-current figure %.4g W", got, want)
+	}
+	lone := cmplx.Abs(r.Parts[0].I) * cmplx.Abs(r.Parts[0].I) * w * 10e-6 / 100
+	if lone < 10*want {
+		t.Errorf("the lone-coil figure %.3g W should be far above the core loss %.3g W here", lone, want)
+	}
+	// Tellegen: the source's power is the load's plus the windings'
+	if d := math.Abs(r.Pin - r.Pout - got); d > 1e-9*r.Pin {
+		t.Errorf("power balance off by %g W", d)
+	}
+	t.Logf("core loss %.4g W (V1 %.4g V rms), lone-coil figure %.4g W", got, v1, lone)
 }

@@ -23,9 +23,13 @@ type Split struct {
 	// Ports marks elements whose loss is the power into their two ports
 	// (lines), not R·|I|².
 	Ports []bool
-	Node  [2][]complex128
-	Vin   [2]complex128
-	Zs    complex128
+	// Coupled marks windings of a coupling: their loss is Re(VL·I*), VL
+	// the loss voltage of PartState.Vloss (linear in the state like V).
+	Coupled []bool
+	VL      [2][]complex128
+	Node    [2][]complex128
+	Vin     [2]complex128
+	Zs      complex128
 	// Cm is each excitation\'s common-mode current into a balanced load\'s
 	// centre impedance Zcm (zero without cm=).
 	Cm  [2]complex128
@@ -35,9 +39,10 @@ type Split struct {
 // NewSplit allocates a split for c.
 func NewSplit(c *Circuit) *Split {
 	n, nn := len(c.Elements), len(c.Nodes)
-	s := &Split{R: make([]float64, n), Ports: make([]bool, n)}
+	s := &Split{R: make([]float64, n), Ports: make([]bool, n), Coupled: make([]bool, n)}
 	for i := range c.Elements {
 		_, s.Ports[i] = c.Elements[i].Model.(Dissipator)
+		s.Coupled[i] = c.Coupled(i)
 	}
 	for k := 0; k < 2; k++ {
 		s.V[k] = make([]complex128, n)
@@ -46,6 +51,7 @@ func NewSplit(c *Circuit) *Split {
 		s.V2[k] = make([]complex128, n)
 		s.I2[k] = make([]complex128, n)
 		s.It[k] = make([]complex128, n)
+		s.VL[k] = make([]complex128, n)
 		s.Node[k] = make([]complex128, nn)
 	}
 	return s
@@ -118,6 +124,7 @@ func (w *SplitWork) solveInto(s *Split, f float64, k int, refine bool) {
 	for i, ps := range w.parts {
 		s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
 		s.V2[k][i], s.I2[k][i], s.It[k][i] = ps.V2, ps.I2, ps.It
+		s.VL[k][i] = ps.Vloss
 	}
 	copy(s.Node[k], x[:len(c.Nodes)])
 	s.Vin[k] = x[c.In]
@@ -158,6 +165,10 @@ func (s *Split) Part(i int, alpha, e complex128) PartState {
 	st := PartState{V: v, I: cur, Lambda: lam, V2: v2, I2: i2, It: it, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
 	if s.Ports[i] {
 		st.Ploss = real(v*conj(cur)) + real(v2*conj(i2))
+	}
+	if s.Coupled[i] {
+		st.Vloss = (s.VL[0][i] + alpha*s.VL[1][i]) * e
+		st.Ploss = real(st.Vloss * conj(cur))
 	}
 	return st
 }

@@ -141,6 +141,7 @@ type Engine struct {
 	rparts       []*ratings.Part
 	forceScan    bool           // tests: scan the sampled phases instead of the exact worst
 	heatT        float64        // key-down time the temperature is judged at, s (+Inf steady)
+	inductance   []float64      // coupled windings: L, for the flux-linkage loss
 	block        []bool         // judged as a two-port by its ports (stress/block.go)
 	esl          []bool         // capacitors with series inductance: the dielectric sees I/(ωC)
 	selfC        []bool         // inductors with self-capacitance: winding and terminal currents differ
@@ -197,6 +198,7 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 	}
 	for i := range c.Elements {
 		e.block = append(e.block, isBlock(c, i))
+		e.inductance = append(e.inductance, c.Elements[i].Value)
 		e.esl = append(e.esl, c.Elements[i].Kind == circuits.Capacitor && c.Elements[i].SeriesInductance() > 0)
 		e.selfC = append(e.selfC, c.Elements[i].Kind == circuits.Inductor && c.Elements[i].SelfCapacitance() > 0)
 	}
@@ -646,7 +648,16 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	q[qVrms] = math.Sqrt(vdc*vdc + v*v + k*k*w.sqV[cls][i])
 	irf2 := (cur*cur + k*k*w.sqI[cls][i]) * avg
 	q[qIrms] = math.Sqrt(idc*idc + irf2)
-	q[qPdiss] = (s.R[i]*cur*cur+k*k*w.sumP[cls][i])*avg + pdc
+	prf := s.R[i] * cur * cur
+	if s.Coupled[i] {
+		// a coupled winding is judged on its core's loss from its own flux
+		// linkage, (ω/Q)·|λ|²/L = R·|λ/L|²: for windings sharing one core
+		// that is the core's whole loss (the load's ampere-turns cancel),
+		// for a loose coupling it is the lone coil's R·|I|²
+		im := mag(s.L[0][i]+alpha*s.L[1][i]) * scale / e.inductance[i]
+		prf = s.R[i] * im * im
+	}
+	q[qPdiss] = (prf+k*k*w.sumP[cls][i])*avg + pdc
 	*dcq = [nQ]float64{}
 	dcq[qVpk], dcq[qVrms], dcq[qIrms], dcq[qPdiss] = math.Abs(vdc), math.Abs(vdc), math.Abs(idc), pdc
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss] = true, true, true, true
@@ -948,7 +959,12 @@ func (e *Engine) harmonicSums(w *workspace) {
 				w.sqV[cls][i] += mv * mv
 				w.sqI[cls][i] += mi * mi
 				w.sqIJ[cls][i] += mi * mi * w.lim[i].areaRatio[h]
-				w.sumP[cls][i] += s.R[i] * mi * mi
+				if s.Coupled[i] {
+					im := ml / e.inductance[i]
+					w.sumP[cls][i] += s.R[i] * im * im
+				} else {
+					w.sumP[cls][i] += s.R[i] * mi * mi
+				}
 			}
 			for ni := range c.Nodes {
 				w.nodeH[cls][ni] += worst(s.Node[0][ni], s.Node[1][ni]) * eh

@@ -54,29 +54,3 @@ func (e *Engine) parasiticFindings(el circuits.Element, a *accum) []ratings.Find
 	}
 	return out
 }
-
-// coupledLossFinding says how a coupled winding's loss is modelled. The
-// solver puts ωL/Q in series with the winding, carried by its whole
-// current. In a transformer or a choke balun with k near 1 the load's
-// ampere-turns cancel in the core, so the core loss follows the winding
-// voltage (the magnetising current), not the load current: a q= measured
-// on the lone winding then overstates the heat, by (load current /
-// magnetising current)², often tenfold or more.
-func coupledLossFinding(s *Section, el circuits.Element, a *accum) (ratings.Finding, bool) {
-	if el.Kind != circuits.Inductor || s.Netlist == nil || el.Comp.Attrs == nil {
-		return ratings.Finding{}, false
-	}
-	if _, measured := el.Comp.Attrs["measured"]; measured {
-		return ratings.Finding{}, false
-	}
-	for _, k := range s.Netlist.Couplings {
-		if k.L1 != el.Name && k.L2 != el.Name {
-			continue
-		}
-		return ratings.Finding{Part: el.Name, Pos: el.Comp.Pos, Severity: "note",
-			Text: fmt.Sprintf("coupled winding (%s): its loss is modelled as ωL/Q in series, carried by the whole winding current, load current included (up to %s at average power here); "+
-				"in a transformer or choke balun the load's ampere-turns cancel in the core, so with the Q of the lone winding this overstates the heat and the temperature: "+
-				"give q= as the winding measures in circuit, or read its dissipation and temperature as an upper bound", k.Name, circuits.FormatSI(a.val[qPdiss], "W"))}, true
-	}
-	return ratings.Finding{}, false
-}

@@ -75,9 +75,6 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 	if extra := e.parasiticFindings(el, a); len(extra) > 0 {
 		p.Findings = append(append([]ratings.Finding{}, p.Findings...), extra...)
 	}
-	if f, ok := coupledLossFinding(s, el, a); ok {
-		p.Findings = append(append([]ratings.Finding{}, p.Findings...), f)
-	}
 	for k := CaseKind(0); k < nKind; k++ {
 		if !a.kindSeen[k] {
 			continue
