@@ -7,9 +7,9 @@ import (
 )
 
 // TestHeatingGuideOnlyIsSaidToBeAdvice: a 40 m lowpass coil of 16 turns on
-// an iron ring (µ≈10, 12.7×7.7×4.8 mm, so Ae ≈ 2.5 mm × 4.8 mm = 12 mm²)
+// an iron ring (µ≈10, 13×8×5 mm, so Ae ≈ 2.5 mm × 5 mm = 12.5 mm²)
 // carries about 87 V rms at 7.1 MHz at 100 W. The transformer EMF equation
-// B = V/(4.44·f·N·Ae) gives 87/(4.44·7.1e6·16·12e-6) ≈ 14 mT at PEP, far
+// B = V/(4.44·f·N·Ae) gives 87/(4.44·7.1e6·16·12.5e-6) ≈ 14 mT at PEP, far
 // below an iron core's saturation (about 1 T, common practice) but above a
 // heating guide of a few mT. The part is marginal on advice only: the
 // overall line must not claim that a derated limit is exceeded, and the
@@ -20,7 +20,7 @@ func TestHeatingGuideOnlyIsSaidToBeAdvice(t *testing.T) {
 	net := writeFile(t, "lpf40.net", `title 40 m lowpass on iron rings
 port in n1 z=50
 port out n3 z=50
-core T1 od=12.7mm id=7.7mm h=4.8mm material=iron mu=10
+core T1 od=13mm id=8mm h=5mm material=iron mu=10
 capacitor C1 n1 gnd 390p dielectric=mica vpk=500 irms=3
 inductor L2 n1 n2 1.2u q=150 core=T1 turns=16 wire=0.8mm
 capacitor C3 n2 gnd 680p dielectric=mica vpk=500 irms=4
