@@ -83,6 +83,10 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 			}
 			var qs []string
 			for k, q := range g.Q {
+				if g.AtBound {
+					qs = append(qs, g.Parts[k]+" —")
+					continue
+				}
 				qs = append(qs, g.Parts[k]+" "+num(q, 0))
 			}
 			t.row(name, "× "+num(g.Scale, 3), sigmaText(g), strings.Join(qs, ", "))
@@ -94,6 +98,14 @@ func WriteCompareText(w io.Writer, v *CompareView) error {
 			}
 		}
 		fmt.Fprintf(w, "  RMS residual of S: %s before, %s after\n", num(f.RMSBefore, 4), num(f.RMSAfter, 4))
+		if v.FitBy == "q" {
+			for _, g := range f.Groups {
+				if sigmaText(g) == "not determined" {
+					fmt.Fprintln(w, "  coils that change the response together (the matching coils of a symmetric filter) cannot be told apart by a sweep: fit them as one with --fit q-class")
+					break
+				}
+			}
+		}
 	}
 	if v.Calibrated != "" {
 		kept := 0
