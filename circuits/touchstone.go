@@ -386,6 +386,11 @@ func ParseTouchstone(file string, src []byte) (*Touchstone, error) {
 			case "DB":
 				vals[k] = cmplx.Rect(math.Pow(10, a/20), b*math.Pi/180)
 			}
+			if cmplx.IsInf(vals[k]) || cmplx.IsNaN(vals[k]) {
+				t := g[1+2*k]
+				r.errorf(t.line, t.Col, "a value whose magnitude is finite (in dB, below about 6000)", "value %s is out of range", Clip(t.Text))
+				return nil, r.errs
+			}
 		}
 		m := make([]complex128, ports*ports) // row-major N11 N12 N21 N22
 		if ports == 1 {

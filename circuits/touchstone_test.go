@@ -120,6 +120,7 @@ func TestTouchstoneErrors(t *testing.T) {
 		{"v2 count", "a.ts", "[Version] 2.0\n# MHz S RI R 50\n[Number of Ports] 1\n[Number of Frequencies] 2\n[Network Data]\n7 0 0\n[End]\n", "a.ts:8:1: found 1 points (2 points as [Number of Frequencies] says)"},
 		{"v2 no end", "a.ts", "[Version] 2.0\n# MHz S RI R 50\n[Number of Ports] 1\n[Number of Frequencies] 1\n[Network Data]\n7 0 0\n", "a.ts:7:1: no [End] ([End] after the data)"},
 		{"three ports", "a.ts", "[Version] 2.0\n# MHz S RI R 50\n[Number of Ports] 3\n", "a.ts:3:19: 3 ports: rfstress reads one- and two-port data (a one- or two-port file)"},
+		{"dB beyond range", "a.s2p", "# MHz S DB R 50\n1 0 0 0 0 0 0 7000 0\n", `a.s2p:2:15: value 7000 is out of range (a value whose magnitude is finite (in dB, below about 6000))`},
 		{"zero frequency", "a.s1p", "# MHz S RI R 50\n0 0 0\n", "a.s1p:2:1: frequency 0 is not above zero (a frequency above zero)"},
 		{"binary", "a.s1p", "# MHz S RI R 50\n7 0\x00 0\n", `a.s1p:2:1: control character '\x00' in the file (printable ASCII)`},
 	}
