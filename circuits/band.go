@@ -1,7 +1,5 @@
 package circuits
 
-import "math"
-
 // BandLU is a complex band LU factorisation with partial pivoting, the
 // scheme of LAPACK's zgbtrf: the matrix has kl sub- and ku
 // super-diagonals; choosing each pivot among the kl rows below the
@@ -45,18 +43,10 @@ func (b *BandLU) Add(i, j int, v complex128) bool {
 // Factor factorises the assembled matrix in place.
 func (b *BandLU) Factor() error {
 	n, kl, ku, w, a := b.n, b.kl, b.ku, b.w, b.a
-	var scale float64
-	for _, v := range a {
-		if x := abs2(v); x > scale {
-			scale = x
-		}
+	tiny, err := pivotFloor(a)
+	if err != nil {
+		return err
 	}
-	if scale == 0 {
-		return ErrSingular
-	}
-	// same singularity test as the dense LU: no pivot above 1e-15 of the
-	// largest entry
-	tiny := math.Sqrt(scale) * 1e-15
 	for k := 0; k < n; k++ {
 		last := min(k+kl, n-1)
 		p, best := k, abs1(a[k*w+kl])

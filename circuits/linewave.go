@@ -101,7 +101,7 @@ func (l *LineSpec) MaxAlong(f float64, w0, w1 Wave, r float64) (max, at float64)
 			if k-2 < 0 {
 				lo = 0
 			}
-			if zm, v := golden(eval, lo, hi); v > best {
+			if zm, v := GoldenMax(eval, lo, hi, 1e-12*(math.Abs(lo)+math.Abs(hi)+1e-9)); v > best {
 				best, bestZ = v, zm
 			}
 		}
@@ -134,17 +134,19 @@ func envelopeMax(g complex128, L float64, w0, w1 Wave, r float64) (float64, floa
 	return env(0), 0
 }
 
-// golden finds the maximum of a unimodal f on [a, b] by golden-section
-// search to a bracket of 1e-12 of its width, ends included.
-func golden(f func(float64) float64, a, b float64) (float64, float64) {
+// GoldenMax finds the maximum of a unimodal f on [a, b] by golden-section
+// search, narrowing the bracket to tol, ends included; it returns where and
+// how large. Lines use it for their standing-wave crest, the engine for the
+// transmitter's worst on the SWR circle.
+func GoldenMax(f func(float64) float64, a, b, tol float64) (float64, float64) {
 	const invPhi = 0.6180339887498949
-	best, bz := f(a), a
-	if v := f(b); v > best {
-		best, bz = v, b
+	bx, bv := a, f(a)
+	if v := f(b); v > bv {
+		bx, bv = b, v
 	}
 	c, d := b-invPhi*(b-a), a+invPhi*(b-a)
 	fc, fd := f(c), f(d)
-	for i := 0; i < 60 && b-a > 1e-12*(math.Abs(a)+math.Abs(b)+1e-9); i++ {
+	for i := 0; i < 60 && b-a > tol; i++ {
 		if fc >= fd {
 			b, d, fd = d, c, fc
 			c = b - invPhi*(b-a)
@@ -155,10 +157,11 @@ func golden(f func(float64) float64, a, b float64) (float64, float64) {
 			fd = f(d)
 		}
 	}
-	for _, p := range [][2]float64{{c, fc}, {d, fd}} {
-		if p[1] > best {
-			best, bz = p[1], p[0]
-		}
+	if fc > bv {
+		bx, bv = c, fc
 	}
-	return bz, best
+	if fd > bv {
+		bx, bv = d, fd
+	}
+	return bx, bv
 }

@@ -29,18 +29,10 @@ func (f *LU) Factor(m []complex128) error {
 	n := f.n
 	copy(f.a, m)
 	a := f.a
-	// scale for the singularity test: largest magnitude in the matrix
-	// largest |entry|, found in squares: one square root, not n²
-	var scale float64
-	for _, v := range a {
-		if x := abs2(v); x > scale {
-			scale = x
-		}
+	tiny, err := pivotFloor(a)
+	if err != nil {
+		return err
 	}
-	if scale == 0 {
-		return ErrSingular
-	}
-	tiny := math.Sqrt(scale) * 1e-15
 	for k := 0; k < n; k++ {
 		p := k
 		best := abs1(a[k*n+k])
@@ -131,4 +123,20 @@ func recip(z complex128) complex128 {
 	r := a / b
 	d := a*r + b
 	return complex(r/d, -1/d)
+}
+
+// pivotFloor is the singularity test shared by the dense and band LU: no
+// pivot may fall below 1e-15 of the largest entry. The largest |entry| is
+// found in squares (one square root, not one per entry).
+func pivotFloor(a []complex128) (float64, error) {
+	var scale float64
+	for _, v := range a {
+		if x := abs2(v); x > scale {
+			scale = x
+		}
+	}
+	if scale == 0 {
+		return 0, ErrSingular
+	}
+	return math.Sqrt(scale) * 1e-15, nil
 }

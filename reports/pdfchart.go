@@ -457,17 +457,7 @@ func (p *pdfw) responsePlot(fp *FilterPlot) {
 			}
 		}
 	}
-	// frame
-	p.draw(colInk)
-	f.SetLineWidth(0.3)
-	f.Rect(plotLeft, top, plotW, plotH, "D")
-	// axis titles
-	p.font("", 7)
-	p.text(colMuted)
-	p.rotText(marginL+1.8, top+plotH/2+8, "loss, dB", true)
-	p.cellAt(plotLeft, bottom+5, plotW, 3.5, "frequency (log scale)", "C")
-	p.text(colInk)
-	f.SetY(bottom + 10)
+	p.lossFrame(top, bottom)
 	p.responseLegend(extras > 0)
 	p.harmonicTable(fp)
 }
@@ -735,4 +725,19 @@ func lossScale(worst float64) (yMax, step float64) {
 		step = 20
 	}
 	return yMax, step
+}
+
+// lossFrame draws the frame of a loss-against-frequency plot and its axis
+// titles, and leaves the cursor under it.
+func (p *pdfw) lossFrame(top, bottom float64) {
+	f := p.f
+	p.draw(colInk)
+	f.SetLineWidth(0.3)
+	f.Rect(plotLeft, top, plotW, plotH, "D")
+	p.font("", 7)
+	p.text(colMuted)
+	p.rotText(marginL+1.8, top+plotH/2+8, "loss, dB", true)
+	p.cellAt(plotLeft, bottom+5, plotW, 3.5, "frequency (log scale)", "C")
+	p.text(colInk)
+	f.SetY(bottom + 10)
 }

@@ -87,7 +87,13 @@ func (e *Engine) blockHarmonic(s *circuits.Split, w *workspace, i, cls int, cs [
 		p, _ := lineDiss(s, i, x.c, x.r)
 		pd = math.Max(pd, p)
 	}
-	vm, im, pd = vm*eh, im*eh, pd*eh*eh
+	w.addHarmonic(cls, i, vm*eh, im*eh, pd*eh*eh)
+}
+
+// addHarmonic adds one harmonic's worst peak voltage, current and
+// dissipation of a two-port part (line or block) into the class sums by
+// the combination rules: peaks add, RMS values add in squares, heat adds.
+func (w *workspace) addHarmonic(cls, i int, vm, im, pd float64) {
 	w.pkV[cls][i] += vm
 	w.sqV[cls][i] += vm * vm
 	w.sqI[cls][i] += im * im

@@ -108,27 +108,7 @@ func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca
 // (open, short, or the normal load set) into the workspace sums.
 func (e *Engine) lineHarmonic(w *workspace, l *circuits.LineSpec, s *circuits.Split, i, h, cls int, eh float64) {
 	f := s.F
-	type circ struct {
-		c complex128
-		r float64
-	}
-	var cs []circ
-	switch {
-	case cls == hOpen:
-		cs = []circ{{0, 0}}
-	case cls == hShort:
-		cs = []circ{{s.Alpha(circuits.Short), 0}}
-	case len(e.circle) == 0:
-		cs = []circ{{s.Alpha(circuits.Load{Z: w.hz[h]}), 0}}
-	default:
-		if ca, ra, ok := e.alphaCircle(s, w.hz[h]); ok {
-			cs = []circ{{ca, ra}}
-		} else {
-			for k := range e.circle {
-				cs = append(cs, circ{s.Alpha(circuits.LoadOnCircle(w.hz[h], e.Cond.SWR, e.phaseAngle(k))), 0})
-			}
-		}
-	}
+	cs := e.harmonicCircles(w, s, h, cls)
 	v0, i0 := l.VoltageWaves(s.V[0][i], s.I[0][i])
 	v1, i1 := l.VoltageWaves(s.V[1][i], s.I[1][i])
 	var vm, im, pd float64
@@ -139,11 +119,7 @@ func (e *Engine) lineHarmonic(w *workspace, l *circuits.LineSpec, s *circuits.Sp
 		vm, im, pd = math.Max(vm, a), math.Max(im, b), math.Max(pd, p)
 	}
 	vm, im, pd = vm*eh, im*eh, pd*eh*eh
-	w.pkV[cls][i] += vm
-	w.sqV[cls][i] += vm * vm
-	w.sqI[cls][i] += im * im
-	w.sqIJ[cls][i] += im * im
-	w.sumP[cls][i] += pd
+	w.addHarmonic(cls, i, vm, im, pd)
 	w.pmH[cls][i] += 2 * l.Alpha(f) * math.Max(l.Z0*im*im, vm*vm/l.Z0)
 }
 

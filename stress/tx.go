@@ -187,7 +187,7 @@ func (e *Engine) txCircle(w *workspace, first int) {
 			}
 		}
 		step := 2 * math.Pi / n
-		phi, _ := goldenMax(gam, float64(bj)*step-step, float64(bj)*step+step)
+		phi, _ := circuits.GoldenMax(gam, float64(bj)*step-step, float64(bj)*step+step, 1e-8) // 1e-8 rad: the crest is flat to 1e-16 there
 		a = at(phi)
 	}
 	scale, _ := e.drive(w, a)
@@ -263,35 +263,6 @@ func (e *Engine) txCrest(w *workspace, ca complex128, ra float64) (complex128, b
 		return 0, false
 	}
 	return alpha, true
-}
-
-// goldenMax maximises f on [a, b] by golden-section search (the ends kept).
-func goldenMax(f func(float64) float64, a, b float64) (float64, float64) {
-	const invPhi = 0.6180339887498949
-	bx, bv := a, f(a)
-	if v := f(b); v > bv {
-		bx, bv = b, v
-	}
-	c, d := b-invPhi*(b-a), a+invPhi*(b-a)
-	fc, fd := f(c), f(d)
-	for i := 0; i < 60 && b-a > 1e-8; i++ { // 1e-8 rad: the crest is flat to 1e-16 there
-		if fc >= fd {
-			b, d, fd = d, c, fc
-			c = b - invPhi*(b-a)
-			fc = f(c)
-		} else {
-			a, c, fc = c, d, fd
-			d = a + invPhi*(b-a)
-			fd = f(d)
-		}
-	}
-	if fc > bv {
-		bx, bv = c, fc
-	}
-	if fd > bv {
-		bx, bv = d, fd
-	}
-	return bx, bv
 }
 
 // judgeTx sets the transmitter verdict against tx-swr-max.
