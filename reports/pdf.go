@@ -121,11 +121,7 @@ func renderPDF(doc *ReportDoc, ownDeflate bool) ([]byte, error) {
 	p.summary()
 	p.marginChart()
 	for i, s := range doc.Bank.Sections {
-		var fp *FilterPlot
-		if i < len(doc.Filters) {
-			fp = &doc.Filters[i]
-		}
-		p.sectionPages(s, fp)
+		p.sectionPages(s, doc.filter(i))
 		if s.Retune != nil {
 			p.tunePage(RetuneView(s))
 		}
@@ -150,9 +146,13 @@ func newPDF(doc *ReportDoc) *pdfw {
 	f := gofpdf.New("P", "mm", "A4", "")
 	// fonts before AliasNbPages: gofpdf then keeps the digits in every
 	// font subset, which the page total is written with at the end
-	f.AddUTF8FontFromBytes(fontSans, "", fontRegular)
-	f.AddUTF8FontFromBytes(fontSans, "B", fontBold)
-	f.AddUTF8FontFromBytes(fontCode, "", fontMono)
+	// gofpdf writes into the font bytes it is given while it subsets them
+	// (a glyph's metrics past the font's last full metric land in the
+	// array: the mono font), so each document gets copies and every
+	// report of a process comes out as the first
+	f.AddUTF8FontFromBytes(fontSans, "", bytes.Clone(fontRegular))
+	f.AddUTF8FontFromBytes(fontSans, "B", bytes.Clone(fontBold))
+	f.AddUTF8FontFromBytes(fontCode, "", bytes.Clone(fontMono))
 	f.AliasNbPages("{nb}")
 	date := doc.Date.UTC()
 	if doc.Date.IsZero() {
