@@ -182,47 +182,72 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		return exitUsage, err
 	}
 
-	var sections []*stress.Section
-	var engines []*stress.Engine
-	retuned := 0
-	for _, job := range jobs {
-		eng := job.eng
+	// each file is audited on its own: with no progress bar to show (and
+	// no trials or retuning, which have workers of their own) the files
+	// run on parallel workers, each result kept in its file's place
+	results := make([]auditResult, len(jobs))
+	auditOne := func(i int) {
+		job := jobs[i]
 		if *retune && len(tuning.Vars(job.c)) > 0 {
 			sec, err := retuneFile(job.c, job.rs, job.cond, *allowUnrated, tf, policy)
 			if err != nil {
-				return exitUsage, usagef("%s: %v", circuits.Escape(job.name), err)
+				results[i].err = usagef("%s: %v", circuits.Escape(job.name), err)
+				return
 			}
-			retuned++
-			sections = append(sections, sec)
-			engines = append(engines, sec.Engine)
-			continue
+			results[i] = auditResult{secs: []*stress.Section{sec}, engs: []*stress.Engine{sec.Engine}, retuned: true}
+			return
 		}
-		secs, engs := []*stress.Section(nil), []*stress.Engine(nil)
 		if len(job.c.NL.Selects) > 0 || job.cond.PartFaults != "" {
 			// select positions and single-part faults: several audits
-			var err error
-			secs, engs, err = stress.AuditNetlist(job.c, job.rs, job.cond, *allowUnrated)
+			secs, engs, err := stress.AuditNetlist(job.c, job.rs, job.cond, *allowUnrated)
 			if err != nil {
-				return exitUsage, usagef("%s: %v", circuits.Escape(job.name), err)
+				results[i].err = usagef("%s: %v", circuits.Escape(job.name), err)
+				return
 			}
-		} else {
-			sec, err := auditWithProgress(eng, tol.quiet, stderr)
+			results[i] = auditResult{secs: secs, engs: engs}
+			return
+		}
+		sec, err := auditWithProgress(job.eng, tol.quiet, stderr)
+		if err != nil {
+			results[i].err = usagef("%s: %v", circuits.Escape(job.name), err)
+			return
+		}
+		results[i] = auditResult{secs: []*stress.Section{sec}, engs: []*stress.Engine{job.eng}}
+	}
+	auditTol := func(i int) {
+		auditOne(i)
+		r := &results[i]
+		for k, sec := range r.secs {
+			if r.err != nil || tol.trials == 0 {
+				return
+			}
+			tr, err := runTolerance(r.engs[k], sec, tol, stderr)
 			if err != nil {
-				return exitUsage, usagef("%s: %v", circuits.Escape(job.name), err)
+				r.err = err
+				return
 			}
-			secs, engs = []*stress.Section{sec}, []*stress.Engine{eng}
+			sec.Tolerance = tr
 		}
-		for i, sec := range secs {
-			if tol.trials != 0 {
-				tr, err := runTolerance(engs[i], sec, tol, stderr)
-				if err != nil {
-					return exitUsage, err
-				}
-				sec.Tolerance = tr
-			}
-			sections = append(sections, sec)
-			engines = append(engines, engs[i])
+	}
+	workers := 1
+	if !*retune && tol.trials == 0 && !showsProgress(tol.quiet, stderr) {
+		workers = poolSize(tol.workers, len(jobs))
+	}
+	forEach(len(jobs), workers, auditTol, func(i int) bool { return results[i].err != nil })
+
+	var sections []*stress.Section
+	var engines []*stress.Engine
+	retuned := 0
+	for i := range jobs {
+		r := results[i]
+		if r.err != nil {
+			return exitUsage, r.err
 		}
+		if r.retuned {
+			retuned++
+		}
+		sections = append(sections, r.secs...)
+		engines = append(engines, r.engs...)
 	}
 	if *retune && retuned == 0 {
 		return exitUsage, usagef("--retune: no file has a variable part (give a capacitor or inductor range=lo:hi)")
@@ -238,7 +263,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		case "--csv":
 			fn = func(w io.Writer) error { return reports.WriteAuditCSV(w, bank) }
 		case "--report":
-			doc := buildReportDoc(bank, engines, *caution, date)
+			doc := startReportDoc(bank, engines, *caution, date, poolSize(tol.workers, len(engines)))
 			fn = func(w io.Writer) error { return writePDF(w, doc) }
 		case "--schematic":
 			fn = func(w io.Writer) error { return reports.WriteSchematicSVG(w, bank) }
@@ -351,6 +376,15 @@ func prepareAudit(file string, flagSettings []stress.Setting, mats map[string]*r
 		return nil, read, []string{circuits.Escape(name) + ": " + err.Error()}
 	}
 	return &auditJob{name: name, c: c, rs: rs, cond: cond, eng: eng}, read, nil
+}
+
+// auditResult is one file's audit: its sections (several for select
+// positions or part faults) and their engines.
+type auditResult struct {
+	secs    []*stress.Section
+	engs    []*stress.Engine
+	retuned bool
+	err     error
 }
 
 // auditJob is one file read and checked, ready to audit.

@@ -12,7 +12,6 @@ import (
 	"github.com/spf13/pflag"
 
 	"rfstress/circuits"
-	"rfstress/reports"
 	"rfstress/stress"
 )
 
@@ -29,7 +28,7 @@ func addTolFlags(fs *pflag.FlagSet) *tolFlags {
 	fs.IntVar(&t.trials, "trials", 0, "tolerance analysis: `number` of Monte Carlo trials (parts' tol= and qtol=)")
 	fs.Uint64Var(&t.seed, "seed", 1, "random `seed` of the tolerance trials")
 	fs.StringVar(&t.dist, "dist", "normal", "tolerance `distribution`: normal (±tol is 3σ) or uniform (flat within ±tol)")
-	fs.IntVar(&t.workers, "workers", 0, "parallel `workers` for the trials (default: all cores)")
+	fs.IntVar(&t.workers, "workers", 0, "parallel `workers` for the trials and for the files of a bank (default: all cores); results do not depend on it")
 	fs.BoolVar(&t.quiet, "quiet", false, "no progress bar")
 	return t
 }
@@ -136,25 +135,6 @@ func progress(w io.Writer, name, unit string, done, total int) {
 	}
 	n := width * done / total
 	fmt.Fprintf(w, "\r%s [%s%s] %d/%d %s", circuits.Clip(name), strings.Repeat("#", n), strings.Repeat(".", width-n), done, total, unit)
-}
-
-// buildReportDoc gathers what the PDF shows; the report draws only.
-func buildReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64, date time.Time) *reports.ReportDoc {
-	doc := &reports.ReportDoc{Tool: "rfstress " + Version, Date: date, Bank: b, CautionV: cautionV}
-	for i, e := range engines {
-		s := b.Sections[i]
-		if s.Harmonics == nil {
-			s.Harmonics = e.HarmonicLines()
-		}
-		fp := reports.FilterPlot{Sweep: e.Sweep(240), BandLo: s.Conditions.BandLo,
-			BandHi: s.Conditions.BandHi, Harmonics: s.Harmonics, Extra: s.Conditions.CarrierAlso,
-			Loads: e.LoadSet(), R0: chartR0(e.C)}
-		if u, err := e.BandUse(21); err == nil {
-			fp.Use = u
-		}
-		doc.Filters = append(doc.Filters, fp)
-	}
-	return doc
 }
 
 // reportDate honours SOURCE_DATE_EPOCH (reproducible-builds.org) so the
