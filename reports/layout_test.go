@@ -119,7 +119,7 @@ func maxf(a, b float64) float64 {
 // schematicPDF renders only the schematics of a bank, one page each.
 func schematicPDF(t *testing.T, doc *ReportDoc) []byte {
 	t.Helper()
-	p := newPDF(doc)
+	p := newPDF(doc, true)
 	for _, s := range doc.Bank.Sections {
 		p.f.AddPage()
 		p.schematic(s)

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"strconv"
 	"strings"
 	"time"
 	"unicode/utf8"
@@ -111,9 +112,10 @@ func WritePDF(w io.Writer, doc *ReportDoc) error {
 }
 
 // renderPDF lays out the report; with ownDeflate the page streams are
-// compressed by deflatePages instead of by gofpdf (same bytes, less work).
+// compressed by deflatePages instead of by gofpdf, and the page total
+// filled in there too (same bytes, less work).
 func renderPDF(doc *ReportDoc, ownDeflate bool) ([]byte, error) {
-	p := newPDF(doc)
+	p := newPDF(doc, !ownDeflate)
 	f := p.f
 	if ownDeflate {
 		f.SetCompression(false)
@@ -129,20 +131,59 @@ func renderPDF(doc *ReportDoc, ownDeflate bool) ([]byte, error) {
 	p.method()
 	p.listings()
 
-	var buf bytes.Buffer
-	if err := f.Output(&buf); err != nil {
+	pages := f.PageNo()
+	var out grab
+	if err := f.Output(&out); err != nil {
 		return nil, fmt.Errorf("report: %w", err)
 	}
 	if ownDeflate {
-		if b, ok := deflatePages(buf.Bytes()); ok {
+		total := [][2][]byte{{utf16BE(pageTotal), utf16BE(strconv.Itoa(pages))}}
+		if b, ok := deflatePages(out.b, total); ok {
 			return b, nil
 		}
+		return renderPDF(doc, false) // a layout deflatePages cannot read
 	}
-	return buf.Bytes(), nil
+	return out.b, nil
+}
+
+// pageTotal stands for the number of pages in the footers until the end.
+const pageTotal = "{nb}"
+
+// utf16BE is s as gofpdf writes text in a UTF-8 font's page stream:
+// UTF-16BE code units (BMP only: see clean), each byte \, (, ) or CR
+// escaped.
+func utf16BE(s string) []byte {
+	var b []byte
+	for _, r := range s {
+		for _, c := range []byte{byte(r >> 8), byte(r)} {
+			switch c {
+			case '\\', '(', ')':
+				b = append(b, '\\')
+			case '\r':
+				b, c = append(b, '\\'), 'r'
+			}
+			b = append(b, c)
+		}
+	}
+	return b
+}
+
+// grab keeps the document gofpdf's Output hands over instead of copying
+// it (a few MB): Output writes its finished buffer once and the Fpdf is
+// not used again.
+type grab struct{ b []byte }
+
+func (g *grab) Write(p []byte) (int, error) {
+	if g.b == nil {
+		g.b = p
+	} else {
+		g.b = append(g.b, p...)
+	}
+	return len(p), nil
 }
 
 // newPDF sets up an empty report document: fonts, dates, page furniture.
-func newPDF(doc *ReportDoc) *pdfw {
+func newPDF(doc *ReportDoc, alias bool) *pdfw {
 	f := gofpdf.New("P", "mm", "A4", "")
 	// fonts before AliasNbPages: gofpdf then keeps the digits in every
 	// font subset, which the page total is written with at the end
@@ -153,7 +194,9 @@ func newPDF(doc *ReportDoc) *pdfw {
 	f.AddUTF8FontFromBytes(fontSans, "", bytes.Clone(fontRegular))
 	f.AddUTF8FontFromBytes(fontSans, "B", bytes.Clone(fontBold))
 	f.AddUTF8FontFromBytes(fontCode, "", bytes.Clone(fontMono))
-	f.AliasNbPages("{nb}")
+	if alias {
+		f.AliasNbPages(pageTotal) // else deflatePages fills it in
+	}
 	date := doc.Date.UTC()
 	if doc.Date.IsZero() {
 		date = time.Unix(0, 0).UTC() // never let gofpdf fall back to the clock
@@ -226,7 +269,7 @@ func (p *pdfw) footer() {
 	p.text(colMuted)
 	// the page total is filled in at the end: left-aligned, so its
 	// placeholder's width never shifts anything
-	p.cellAt(marginL, pageH-12, 40, 4, fmt.Sprintf("page %d of {nb}", f.PageNo()), "L")
+	p.cellAt(marginL, pageH-12, 40, 4, fmt.Sprintf("page %d of %s", f.PageNo(), pageTotal), "L")
 	p.cellAt(marginL+40, pageH-12, bodyW-80, 4, p.doc.Tool, "C")
 	p.cellAt(pageW-marginR-40, pageH-12, 40, 4, p.printedDate(), "R")
 }
@@ -239,6 +282,9 @@ func (p *pdfw) footer() {
 func clean(s string) string {
 	ok := true
 	for _, r := range s {
+		if r >= 0x20 && r < 0x7F {
+			continue // printable ASCII: nothing to escape, in every font
+		}
 		if r > 0xFFFF || r == utf8.RuneError || (r < 0x20 && r != '\n') || (r >= 0x7F && r < 0xA0) || circuits.Escape(string(r)) != string(r) {
 			ok = false
 			break
@@ -265,7 +311,21 @@ func clean(s string) string {
 
 // cell writes one line of text in a box w wide; ln as in CellFormat.
 func (p *pdfw) cell(w, h float64, s string, ln int, align string) {
+	p.textFill()
 	p.f.CellFormat(w, h, clean(s), "", ln, align, false, 0, "")
+}
+
+// textFill makes the fill colour the text colour before text is drawn.
+// PDF paints text in the fill colour; while the two differ gofpdf wraps
+// every text in q … Q with the text colour, an operator and a formatted
+// colour per cell, where one colour change serves a whole run of cells.
+// Not to be called inside a saved state (q … Q): gofpdf would take the
+// colour as current after the Q.
+func (p *pdfw) textFill() {
+	tr, tg, tb := p.f.GetTextColor()
+	if fr, fg, fb := p.f.GetFillColor(); fr != tr || fg != tg || fb != tb {
+		p.f.SetFillColor(tr, tg, tb)
+	}
 }
 
 // cellAt is cell at (x, y).
@@ -276,6 +336,7 @@ func (p *pdfw) cellAt(x, y, w, h float64, s, align string) {
 
 // multi writes wrapped text from the current position.
 func (p *pdfw) multi(w, h float64, s string) {
+	p.textFill()
 	p.f.MultiCell(w, h, clean(s), "", "L", false)
 }
 

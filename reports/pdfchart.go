@@ -500,6 +500,7 @@ func (p *pdfw) curve(pts []stress.SweepPoint, ax logAxis, yOf func(float64) floa
 // up, else reading downwards from (x, y).
 func (p *pdfw) rotText(x, y float64, s string, up bool) {
 	f := p.f
+	p.textFill()
 	f.TransformBegin()
 	if up {
 		f.TransformRotate(90, x, y)

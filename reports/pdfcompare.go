@@ -16,7 +16,7 @@ import (
 // |S21| and |S11| of both overlaid, the heat table and the Q fit.
 func WriteComparePDF(w io.Writer, v *CompareView, tool string, date time.Time) error {
 	doc := &ReportDoc{Tool: tool, Date: date, Bank: &stress.Bank{}, Subject: "model against measurement: " + v.File}
-	p := newPDF(doc)
+	p := newPDF(doc, true)
 	f := p.f
 	f.SetTitle("Model against measurement", true)
 	f.SetSubject(doc.Subject, true)

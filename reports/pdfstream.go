@@ -5,8 +5,11 @@ import (
 	"compress/zlib"
 	"fmt"
 	"regexp"
+	"runtime"
 	"sort"
 	"strconv"
+	"sync"
+	"sync/atomic"
 )
 
 // deflatePages compresses the page content streams of a PDF that gofpdf
@@ -21,7 +24,10 @@ import (
 // "N 0 obj\n<</Length L>>\nstream\n…\nendstream\nendobj\n", the table and
 // trailer at the end. When anything differs it reports false and the
 // caller keeps the document as it is: valid, only larger.
-func deflatePages(doc []byte) ([]byte, bool) {
+//
+// Each aliases pair is replaced in every page stream before it is
+// compressed, as gofpdf's own alias replacement does (the page total).
+func deflatePages(doc []byte, aliases [][2][]byte) ([]byte, bool) {
 	// cross-reference table
 	sx := bytes.LastIndex(doc, []byte("startxref\n"))
 	if sx < 0 {
@@ -66,20 +72,24 @@ func deflatePages(doc []byte) ([]byte, bool) {
 	}
 	sort.Slice(order, func(a, b int) bool { return offs[order[a]] < offs[order[b]] })
 
-	out := bytes.NewBuffer(make([]byte, 0, len(doc)/2))
-	out.Write(doc[:offs[order[0]]])
-	newOffs := make([]int, count)
-	var zbuf bytes.Buffer
-	zw, _ := zlib.NewWriterLevel(&zbuf, zlib.BestSpeed)
+	// check every segment first, then compress the page streams on
+	// parallel workers, each with its own writer: a stream's bytes depend
+	// only on its data, so the document is the same whatever their number
+	type part struct {
+		seg  []byte // written as it is, or
+		data []byte // a page's stream, compressed into z
+		z    []byte
+	}
+	parts := make([]part, len(order))
+	var pages []int
 	for k, j := range order {
 		end := xo
 		if k+1 < len(order) {
 			end = offs[order[k+1]]
 		}
 		seg := doc[offs[j]:end]
-		newOffs[j] = out.Len()
 		if !contents[j] {
-			out.Write(seg)
+			parts[k].seg = seg
 			continue
 		}
 		pre := fmt.Sprintf("%d 0 obj\n<</Length ", j)
@@ -96,13 +106,53 @@ func deflatePages(doc []byte) ([]byte, bool) {
 		if err != nil || len(data) != l+len("\nendstream\nendobj\n") || string(data[l:]) != "\nendstream\nendobj\n" {
 			return nil, false
 		}
-		zbuf.Reset()
-		zw.Reset(&zbuf)
-		zw.Write(data[:l])
-		zw.Close()
-		fmt.Fprintf(out, "%d 0 obj\n<</Filter /FlateDecode /Length %d>>\nstream\n", j, zbuf.Len())
-		out.Write(zbuf.Bytes())
-		out.WriteString("\nendstream\nendobj\n")
+		parts[k].data = data[:l]
+		pages = append(pages, k)
+	}
+	workers := min(runtime.GOMAXPROCS(0), len(pages))
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Go(func() {
+			zw, _ := zlib.NewWriterLevel(nil, zlib.BestSpeed)
+			for {
+				n := int(next.Add(1) - 1)
+				if n >= len(pages) {
+					return
+				}
+				pt := &parts[pages[n]]
+				data := pt.data
+				for _, a := range aliases {
+					if bytes.Contains(data, a[0]) {
+						data = bytes.ReplaceAll(data, a[0], a[1])
+					}
+				}
+				z := bytes.NewBuffer(make([]byte, 0, len(data)/3+64))
+				zw.Reset(z)
+				zw.Write(data)
+				zw.Close()
+				pt.z = z.Bytes()
+			}
+		})
+	}
+	wg.Wait()
+
+	size := offs[order[0]] + len(doc) - xo
+	for _, pt := range parts {
+		size += len(pt.seg) + len(pt.z) + 64
+	}
+	out := bytes.NewBuffer(make([]byte, 0, size))
+	out.Write(doc[:offs[order[0]]])
+	newOffs := make([]int, count)
+	for k, j := range order {
+		newOffs[j] = out.Len()
+		if pt := parts[k]; pt.data == nil {
+			out.Write(pt.seg)
+		} else {
+			fmt.Fprintf(out, "%d 0 obj\n<</Filter /FlateDecode /Length %d>>\nstream\n", j, len(pt.z))
+			out.Write(pt.z)
+			out.WriteString("\nendstream\nendobj\n")
+		}
 	}
 	nx := out.Len()
 	fmt.Fprintf(out, "xref\n0 %d\n0000000000 65535 f \n", count)

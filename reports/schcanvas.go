@@ -91,6 +91,7 @@ func (c *pdfCanvas) text(l slabel) {
 	case 'R':
 		x -= w
 	}
+	c.p.textFill()
 	c.p.f.Text(x, y, s)
 	c.p.text(colInk)
 }

@@ -12,7 +12,7 @@ import (
 // never inside a name's word, never leaving a bare extension), and the
 // pieces put back together give the name unchanged.
 func TestFileNamesWrapAtSeparators(t *testing.T) {
-	p := newPDF(&ReportDoc{Bank: &stress.Bank{}})
+	p := newPDF(&ReportDoc{Bank: &stress.Bank{}}, true)
 	p.f.AddPage()
 	p.font("B", 8)
 	for _, name := range []string{"testdata/station/relay-bank-40m-20m.net", "testdata/station/tuner-40m-coax.net", "testdata/station/lpf-20m.net"} {
