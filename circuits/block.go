@@ -54,8 +54,8 @@ func (blockModel) Stamp(e *Element, s *System, f float64) {
 	}
 }
 
-func (blockModel) State(e *Element, x []complex128, f float64) PartState {
-	return PartState{V: nodeV(x, e.Nodes[0]), I: x[e.Branch], V2: nodeV(x, e.Nodes[1]), I2: x[e.Branch+1]}
+func (blockModel) State(e *Element, x []complex128, f float64, st *PartState) {
+	*st = PartState{V: nodeV(x, e.Nodes[0]), I: x[e.Branch], V2: nodeV(x, e.Nodes[1]), I2: x[e.Branch+1]}
 }
 
 // LossR is 0: a block's dissipation is the net power into its ports.

@@ -65,12 +65,13 @@ func (m capacitorModel) Stamp(e *Element, s *System, f float64) {
 	s.Admit(e.A, e.B, 1/m.Impedance(e, f))
 }
 
-func (m capacitorModel) State(e *Element, x []complex128, f float64) PartState {
+func (m capacitorModel) State(e *Element, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	if f == 0 {
-		return PartState{V: v}
+		*st = PartState{V: v}
+		return
 	}
-	return PartState{V: v, I: v / m.Impedance(e, f)}
+	*st = PartState{V: v, I: v / m.Impedance(e, f)}
 }
 
 func (capacitorModel) LossR(e *Element, f float64) float64 {

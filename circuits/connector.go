@@ -28,8 +28,8 @@ func (connectorModel) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, 0)
 }
 
-func (connectorModel) State(e *Element, x []complex128, f float64) PartState {
-	return PartState{V: nodeV(x, e.A), I: x[e.Branch]}
+func (connectorModel) State(e *Element, x []complex128, f float64, st *PartState) {
+	*st = PartState{V: nodeV(x, e.A), I: x[e.Branch]}
 }
 
 func (connectorModel) LossR(*Element, float64) float64 { return 0 }

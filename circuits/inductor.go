@@ -94,14 +94,13 @@ func (m inductorModel) Stamp(e *Element, s *System, f float64) {
 
 // State: I is the winding's current (flux, heat), It the terminal current
 // when self-capacitance makes them differ.
-func (inductorModel) State(e *Element, x []complex128, f float64) PartState {
+func (inductorModel) State(e *Element, x []complex128, f float64, st *PartState) {
 	cur := x[e.Branch]
 	v := nodeV(x, e.A) - nodeV(x, e.B)
-	st := PartState{V: v, I: cur, Lambda: complex(e.Inductance(f), 0) * cur}
+	*st = PartState{V: v, I: cur, Lambda: complex(e.Inductance(f), 0) * cur}
 	if e.cp > 0 {
 		st.It = cur + complex(0, 2*math.Pi*f*e.cp)*v
 	}
-	return st
 }
 
 // winding is the inductive branch R + jωL (or the measured impedance).

@@ -21,10 +21,11 @@ type Model interface {
 	// Stamp adds the element to the system at f; f = 0 is the DC solution.
 	Stamp(e *Element, s *System, f float64)
 	// State reads the element's linear state (voltage, current, flux
-	// linkage; second-port values for two-port kinds) from solution x.
+	// linkage; second-port values for two-port kinds) from solution x
+	// into st, overwriting every field (st is not cleared before).
 	// Every field it fills must be linear in x, so superposed solutions
 	// (Split) give superposed states.
-	State(e *Element, x []complex128, f float64) PartState
+	State(e *Element, x []complex128, f float64, st *PartState)
 	// LossR is the series-equivalent loss resistance at f: the element
 	// dissipates |I|²·LossR with I its State current.
 	LossR(e *Element, f float64) float64

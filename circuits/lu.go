@@ -16,12 +16,13 @@ var ErrSingular = errors.New("network matrix is singular (a floating section or 
 type LU struct {
 	n   int
 	a   []complex128 // L below the diagonal (unit diagonal implied), U on and above
+	inv []complex128 // 1/U[k][k]: the solves multiply, not divide
 	piv []int
 }
 
 // NewLU allocates room for an n×n factorisation.
 func NewLU(n int) *LU {
-	return &LU{n: n, a: make([]complex128, n*n), piv: make([]int, n)}
+	return &LU{n: n, a: make([]complex128, n*n), inv: make([]complex128, n), piv: make([]int, n)}
 }
 
 // Factor copies m (row-major n×n) and factorises it in place.
@@ -52,6 +53,7 @@ func (f *LU) Factor(m []complex128) error {
 			}
 		}
 		inv := recip(a[k*n+k])
+		f.inv[k] = inv
 		rowk := a[k*n : k*n+n]
 		for i := k + 1; i < n; i++ {
 			ri := a[i*n : i*n+n]
@@ -102,7 +104,7 @@ func (f *LU) Solve(b []complex128) {
 		for j := i + 1; j < n; j++ {
 			s -= ri[j] * b[j]
 		}
-		b[i] = s / ri[i]
+		b[i] = s * f.inv[i]
 	}
 }
 

@@ -27,8 +27,8 @@ func (supplyModel) Stamp(e *Element, s *System, f float64) {
 
 // State: I is the current from the node into the supply (negative while
 // it delivers power).
-func (supplyModel) State(e *Element, x []complex128, f float64) PartState {
-	return PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: x[e.Branch]}
+func (supplyModel) State(e *Element, x []complex128, f float64, st *PartState) {
+	*st = PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: x[e.Branch]}
 }
 
 func (supplyModel) LossR(*Element, float64) float64 { return 0 }

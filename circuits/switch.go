@@ -59,12 +59,13 @@ func (switchModel) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, complex(math.Max(e.sw.ron, MinDCR), 2*math.Pi*f*e.sw.lon))
 }
 
-func (switchModel) State(e *Element, x []complex128, f float64) PartState {
+func (switchModel) State(e *Element, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	if e.sw.open {
-		return PartState{V: v, I: v * complex(0, 2*math.Pi*f*e.sw.coff)}
+		*st = PartState{V: v, I: v * complex(0, 2*math.Pi*f*e.sw.coff)}
+		return
 	}
-	return PartState{V: v, I: x[e.Branch]}
+	*st = PartState{V: v, I: x[e.Branch]}
 }
 
 func (switchModel) LossR(e *Element, f float64) float64 {

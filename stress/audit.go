@@ -135,7 +135,7 @@ type Engine struct {
 	levels       []float64
 	carriers     []float64
 	nBand        int
-	circle       []circuits.Load
+	nPhase       int // phases sampled on the SWR circle (0: no circle)
 	faults       []CaseKind
 	perCarrier   int
 	rparts       []*ratings.Part
@@ -169,9 +169,9 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 	}
 	e := &Engine{C: c, R: rs, Cond: cond, levels: cond.HarmonicLevels(), heatT: cond.HeatTime()}
 	if cond.SWR > 1 {
-		for k := 0; k < cond.Phases; k++ {
-			e.circle = append(e.circle, circuits.LoadOnCircle(c.Zout, cond.SWR, e.phaseAngle(k)))
-		}
+		// the sampled loads are drawn when a case needs one (circleLoad):
+		// the exact worst of the continuous circle visits none of them
+		e.nPhase = cond.Phases
 	}
 	band := cond.Carriers()
 	e.nBand = len(band) - len(cond.CarrierAlso)
@@ -186,7 +186,7 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 			e.faults = append(e.faults, FaultShort)
 		}
 	}
-	e.perCarrier = 1 + len(e.circle) + len(cond.Loads) + len(e.faults)
+	e.perCarrier = 1 + e.nPhase + len(cond.Loads) + len(e.faults)
 	for fi, f := range e.carriers {
 		z, _, err := c.AntennaAt(f)
 		if err != nil && fi < e.nBand {
@@ -239,6 +239,11 @@ func (e *Engine) phaseAngle(k int) float64 {
 	return 2 * math.Pi * float64(k) / float64(e.Cond.Phases)
 }
 
+// circleLoad is sampled phase k of the SWR circle round centre zc.
+func (e *Engine) circleLoad(zc complex128, k int) circuits.Load {
+	return circuits.LoadOnCircle(zc, e.Cond.SWR, e.phaseAngle(k))
+}
+
 // NumCases is the number of cases audited.
 func (e *Engine) NumCases() int {
 	if e.listed != nil {
@@ -257,12 +262,12 @@ func (e *Engine) Case(i int) Case {
 	switch {
 	case j == 0:
 		c.Kind, c.Load = Matched, circuits.Load{Z: e.centre[fi]}
-	case j <= len(e.circle):
-		c.Kind, c.Load, c.Theta = Circle, circuits.LoadOnCircle(e.centre[fi], e.Cond.SWR, e.phaseAngle(j-1)), 360*float64(j-1)/float64(len(e.circle))
-	case j <= len(e.circle)+len(e.Cond.Loads):
-		c.Kind, c.Load = Explicit, circuits.Load{Z: e.Cond.Loads[j-1-len(e.circle)]}
+	case j <= e.nPhase:
+		c.Kind, c.Load, c.Theta = Circle, e.circleLoad(e.centre[fi], j-1), 360*float64(j-1)/float64(e.nPhase)
+	case j <= e.nPhase+len(e.Cond.Loads):
+		c.Kind, c.Load = Explicit, circuits.Load{Z: e.Cond.Loads[j-1-e.nPhase]}
 	default:
-		c.Kind = e.faults[j-1-len(e.circle)-len(e.Cond.Loads)]
+		c.Kind = e.faults[j-1-e.nPhase-len(e.Cond.Loads)]
 		c.Load = circuits.OpenLoad
 		if c.Kind == FaultShort {
 			c.Load = circuits.Short
@@ -366,12 +371,8 @@ type workspace struct {
 	tx     TxResult     // what the transmitter sees, worst over the run
 	// the antenna at the current carrier (the SWR circle's centre), its
 	// circle, and the antenna at each harmonic of that carrier
-	zc     complex128
-	circle []circuits.Load
-	own    []circuits.Load // circle round another centre than the port's z
-	ownZ   complex128
-	ownOK  bool
-	hz     []complex128
+	zc complex128
+	hz []complex128
 	// limits per part at the current carrier
 	dcq [nQ]float64 // the DC share of each stress evalPart last computed
 	// the DC solution: per part V, I, flux linkage and heat; per node V
@@ -506,16 +507,16 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 		// matched, explicit loads and faults: one evaluation each
 		e.evalCase(w, base, Matched, circuits.Load{Z: w.zc}, f, &nw)
 		for j, z := range e.Cond.Loads {
-			e.evalCase(w, base+1+len(e.circle)+j, Explicit, circuits.Load{Z: z}, f, &nw)
+			e.evalCase(w, base+1+e.nPhase+j, Explicit, circuits.Load{Z: z}, f, &nw)
 		}
 		for j, k := range e.faults {
 			l := circuits.OpenLoad
 			if k == FaultShort {
 				l = circuits.Short
 			}
-			e.evalCase(w, base+1+len(e.circle)+len(e.Cond.Loads)+j, k, l, f, &nw)
+			e.evalCase(w, base+1+e.nPhase+len(e.Cond.Loads)+j, k, l, f, &nw)
 		}
-		if len(e.circle) > 0 {
+		if e.nPhase > 0 {
 			e.circleCases(w, base+1, f, &nw)
 			e.txCircle(w, base+1)
 		}
@@ -528,24 +529,6 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 // each harmonic (measured where the sweep reaches, else the port's z).
 func (e *Engine) setAntenna(w *workspace, fi int, f float64) {
 	w.zc = e.centre[fi]
-	// the port's own circle is the engine's, shared read-only; another
-	// centre (a measured antenna) gets the workspace's own copy, drawn
-	// again only when the centre moves: per carrier this was a copy of
-	// every phase, as costly as the rest of a 3600-phase audit
-	if w.zc == e.C.Zout {
-		w.circle = e.circle
-	} else {
-		if w.own == nil {
-			w.own = make([]circuits.Load, len(e.circle))
-		}
-		if !w.ownOK || w.ownZ != w.zc {
-			for k := range w.own {
-				w.own[k] = circuits.LoadOnCircle(w.zc, e.Cond.SWR, e.phaseAngle(k))
-			}
-			w.ownZ, w.ownOK = w.zc, true
-		}
-		w.circle = w.own
-	}
 	for h := range w.hz {
 		w.hz[h] = e.C.Zout
 		if z, measured, err := e.C.AntennaAt(float64(h+2) * f); err == nil && measured {
@@ -747,8 +730,8 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) {
 	s := w.carr
 	scan := func() {
-		for j, l := range w.circle {
-			e.evalCase(w, first+j, Circle, l, f, nw)
+		for j := 0; j < e.nPhase; j++ {
+			e.evalCase(w, first+j, Circle, e.circleLoad(w.zc, j), f, nw)
 		}
 	}
 	if e.Cond.Drive == "delivered" || e.forceScan {
@@ -824,7 +807,7 @@ func (e *Engine) circleIndex(w *workspace, first int, th float64, disc bool) int
 	if w.record && !disc {
 		return e.NumCases() + len(w.extra)
 	}
-	n := len(e.circle)
+	n := e.nPhase
 	return first + int(math.Round(th/(2*math.Pi)*float64(n)))%n
 }
 
@@ -918,7 +901,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 			case cls == hShort:
 				a := s.Alpha(circuits.Short)
 				worst = func(x0, x1 complex128) float64 { return mag(x0 + a*x1) }
-			case len(e.circle) == 0:
+			case e.nPhase == 0:
 				a := s.Alpha(circuits.Load{Z: w.hz[h]})
 				worst = func(x0, x1 complex128) float64 { return mag(x0 + a*x1) }
 			default:
@@ -929,8 +912,8 @@ func (e *Engine) harmonicSums(w *workspace) {
 				} else {
 					worst = func(x0, x1 complex128) float64 {
 						var m float64
-						for k := range e.circle {
-							l := circuits.LoadOnCircle(w.hz[h], e.Cond.SWR, e.phaseAngle(k))
+						for k := 0; k < e.nPhase; k++ {
+							l := e.circleLoad(w.hz[h], k)
 							if v := mag(x0 + s.Alpha(l)*x1); v > m {
 								m = v
 							}

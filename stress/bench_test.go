@@ -113,7 +113,8 @@ func BenchmarkAuditNaive(b *testing.B) {
 				if lvl == 0 {
 					continue
 				}
-				for _, l := range e.circle {
+				for k := 0; k < e.nPhase; k++ {
+					l := e.circleLoad(fx.c.Zout, k)
 					r, err := fx.c.Solve(float64(h+2)*f, 100*lvl, l)
 					if err != nil {
 						b.Fatal(err)

@@ -114,15 +114,15 @@ func (e *Engine) harmonicCircles(w *workspace, s *circuits.Split, h, cls int) []
 		return []weightCircle{{0, 0}}
 	case cls == hShort:
 		return []weightCircle{{s.Alpha(circuits.Short), 0}}
-	case len(e.circle) == 0:
+	case e.nPhase == 0:
 		return []weightCircle{{s.Alpha(circuits.Load{Z: w.hz[h]}), 0}}
 	}
 	if ca, ra, ok := e.alphaCircle(s, w.hz[h]); ok {
 		return []weightCircle{{ca, ra}}
 	}
 	var cs []weightCircle
-	for k := range e.circle {
-		cs = append(cs, weightCircle{s.Alpha(circuits.LoadOnCircle(w.hz[h], e.Cond.SWR, e.phaseAngle(k))), 0})
+	for k := 0; k < e.nPhase; k++ {
+		cs = append(cs, weightCircle{s.Alpha(e.circleLoad(w.hz[h], k)), 0})
 	}
 	return cs
 }

@@ -167,7 +167,7 @@ func crestAlpha(x0, x1, c complex128, r float64) complex128 {
 // weight α.
 func (e *Engine) phaseOfAlpha(w *workspace, alpha complex128) int {
 	s := w.carr
-	n := len(e.circle)
+	n := e.nPhase
 	if alpha == 0 || n == 0 {
 		return 0
 	}

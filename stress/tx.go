@@ -164,9 +164,9 @@ func (e *Engine) txCircle(w *workspace, first int) {
 	s := w.carr
 	ca, ra, ok := e.alphaCircle(s, w.zc)
 	const n = 72
-	if !ok || ra == 0 || len(e.circle) <= n {
-		for j, l := range w.circle {
-			e.txCase(w, first+j, Circle, s.Alpha(l))
+	if !ok || ra == 0 || e.nPhase <= n {
+		for j := 0; j < e.nPhase; j++ {
+			e.txCase(w, first+j, Circle, s.Alpha(e.circleLoad(w.zc, j)))
 		}
 		if !ok || ra == 0 {
 			return
@@ -194,14 +194,14 @@ func (e *Engine) txCircle(w *workspace, first int) {
 	v := e.txAt(s, a, scale)
 	j := e.phaseOfAlpha(w, a)
 	v.Case = first + j
-	if m := len(e.circle); m > n {
+	if m := e.nPhase; m > n {
 		// a fine circle: |Γ| has one crest, so no sampled phase beats the
 		// continuous worst; the phases beside it are recorded (they can
 		// only tie) instead of a scan of every phase, which would cost
 		// what the rest of the audit does not: per phase, not per crest
 		for d := -1; d <= 1; d++ {
 			jj := ((j+d)%m + m) % m
-			e.txCase(w, first+jj, Circle, s.Alpha(w.circle[jj]))
+			e.txCase(w, first+jj, Circle, s.Alpha(e.circleLoad(w.zc, jj)))
 		}
 	}
 	if v.SWR > w.tx.Worst.SWR && w.record && ca != 0 {
