@@ -62,7 +62,7 @@ func (m capacitorModel) Stamp(e *Element, s *System, f float64) {
 	if f == 0 {
 		return // open at DC
 	}
-	s.Admit(e.A, e.B, 1/m.Impedance(e, f))
+	s.Admit(e.A, e.B, recip(m.Impedance(e, f)))
 }
 
 func (m capacitorModel) State(e *Element, x []complex128, f float64, st *PartState) {
@@ -71,7 +71,7 @@ func (m capacitorModel) State(e *Element, x []complex128, f float64, st *PartSta
 		*st = PartState{V: v}
 		return
 	}
-	*st = PartState{V: v, I: v / m.Impedance(e, f)}
+	*st = PartState{V: v, I: v * recip(m.Impedance(e, f))}
 }
 
 func (capacitorModel) LossR(e *Element, f float64) float64 {

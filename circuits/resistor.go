@@ -20,7 +20,7 @@ func (m resistorModel) Stamp(e *Element, s *System, f float64) {
 
 func (m resistorModel) State(e *Element, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
-	*st = PartState{V: v, I: v / m.Impedance(e, f)}
+	*st = PartState{V: v, I: v * recip(m.Impedance(e, f))}
 }
 
 func (m resistorModel) LossR(e *Element, f float64) float64 { return real(m.Impedance(e, f)) }

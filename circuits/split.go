@@ -207,14 +207,16 @@ func (s *Split) MaxNodeV(alpha complex128, e float64) float64 {
 // Z = z0·(1+Γ)/(1−Γ).
 func LoadOnCircle(z0 complex128, swr, theta float64) Load {
 	g := (swr - 1) / (swr + 1)
-	gam := complex(g*math.Cos(theta), g*math.Sin(theta))
-	return Load{Z: (z0 + gam*conj(z0)) / (1 - gam)}
+	sin, cos := math.Sincos(theta)
+	gam := complex(g*cos, g*sin)
+	return Load{Z: (z0 + gam*conj(z0)) * recip(1-gam)}
 }
 
 // ReflectionAngle is the angle θ in [0, 2π) of the power-wave reflection
 // coefficient of z against z0: the inverse of LoadOnCircle's angle.
 func ReflectionAngle(z0, z complex128) float64 {
-	g := (z - z0) / (z + conj(z0))
+	// arg((z−z0)/(z+z0*)) without the division: arg(a·b̄) = arg a − arg b
+	g := (z - z0) * conj(z+conj(z0))
 	th := cmplx.Phase(g)
 	if th < 0 {
 		th += 2 * math.Pi

@@ -99,3 +99,27 @@ func TestAreaFor(t *testing.T) {
 		t.Errorf("area %.4g cm²: rise %.6g K, allowed %g K", a*1e4, got, allowed)
 	}
 }
+
+// More heat never gives a smaller rise: the steady rise grows as P^0.833,
+// the time constant R_th·C_th shrinks (so the rise after a key-down time
+// comes closer to it), and a duty's ripple factor grows as τ shrinks. The
+// audit relies on it to skip the power law for cases that dissipate no
+// more than one already judged (stress: Engine.heats). Checked on a grid
+// of dissipations, key-down times and duties, steady state included.
+func TestHeatingRisesWithDissipation(t *testing.T) {
+	p := thermalPart(t)
+	duties := []Duty{{}, {On: 15, Period: 30}, {On: 1, Period: 60}, {On: 50, Period: 60}, {On: 120}}
+	for _, d := range duties {
+		for _, tt := range []float64{0, 1, 30, 300, 3000, math.Inf(1)} {
+			prev := 0.0
+			for k := 0; k <= 400; k++ {
+				pw := 1e-4 * math.Pow(10, float64(k)/50) // 0.1 mW to 10 kW
+				r := p.Heating(pw, tt, d).Rise
+				if r < prev {
+					t.Fatalf("duty %+v, t %g s: %.6g W gives %.9g K, less than %.9g K at %.6g W", d, tt, pw, r, prev, pw/math.Pow(10, 0.02))
+				}
+				prev = r
+			}
+		}
+	}
+}

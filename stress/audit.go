@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"sync"
 	"sync/atomic"
 
 	"rfstress/circuits"
@@ -139,17 +140,20 @@ type Engine struct {
 	faults       []CaseKind
 	perCarrier   int
 	rparts       []*ratings.Part
-	forceScan    bool           // tests: scan the sampled phases instead of the exact worst
-	heatT        float64        // key-down time the temperature is judged at, s (+Inf steady)
-	inductance   []float64      // coupled windings: L, for the flux-linkage loss
-	block        []bool         // judged as a two-port by its ports (stress/block.go)
-	esl          []bool         // capacitors with series inductance: the dielectric sees I/(ωC)
-	selfC        []bool         // inductors with self-capacitance: winding and terminal currents differ
-	centre       []complex128   // per carrier: the antenna load, the SWR circle's centre
-	lims         [][]partLimits // per carrier, per part: asked once, shared by trials
-	listed       []Case         // retuned audits: the cases of every load, listed (retune.go)
-	limBuf       []ratings.Limit
-	rdc          []float64 // per part: winding DC resistance from the ratings layer (0: none known)
+	forceScan    bool         // tests: scan the sampled phases instead of the exact worst
+	everyHeat    bool         // tests: evaluate the thermal model at every case (see heats)
+	heatT        float64      // key-down time the temperature is judged at, s (+Inf steady)
+	inductance   []float64    // coupled windings: L, for the flux-linkage loss
+	block        []bool       // judged as a two-port by its ports (stress/block.go)
+	esl          []bool       // capacitors with series inductance: the dielectric sees I/(ωC)
+	selfC        []bool       // inductors with self-capacitance: winding and terminal currents differ
+	centre       []complex128 // per carrier: the antenna load, the SWR circle's centre
+	// lims holds every carrier's limits for tolerance trials, asked once
+	// and shared (cacheLimits); a single audit asks them per carrier into
+	// its workspace instead, which costs no more and allocates nothing
+	lims   *limitStore
+	listed []Case    // retuned audits: the cases of every load, listed (retune.go)
+	rdc    []float64 // per part: winding DC resistance from the ratings layer (0: none known)
 	// faulted is set for runs on a circuit with a part failed: a draw cut
 	// off from its supply is then dropped, not an input error
 	faulted bool
@@ -167,7 +171,7 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 	if err := cond.Check(); err != nil {
 		return nil, err
 	}
-	e := &Engine{C: c, R: rs, Cond: cond, levels: cond.HarmonicLevels(), heatT: cond.HeatTime()}
+	e := &Engine{C: c, R: rs, Cond: cond, levels: cond.HarmonicLevels(), heatT: cond.HeatTime(), lims: &limitStore{}}
 	if cond.SWR > 1 {
 		// the sampled loads are drawn when a case needs one (circleLoad):
 		// the exact worst of the continuous circle visits none of them
@@ -211,9 +215,6 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 	}
 	if rs != nil && rs.Air != nil {
 		rs.SetAir(e.Air())
-	}
-	for _, f := range e.carriers {
-		e.lims = append(e.lims, e.limitsAt(f))
 	}
 	for _, el := range c.Elements {
 		if sp := circuits.SpecOf(el.Kind); sp != nil && sp.Source {
@@ -359,7 +360,11 @@ type workspace struct {
 	nodeH [nClass][]float64
 	pmH   [nClass][]float64 // lines: Σ over harmonics of the hottest metre's dissipation
 	lim   []partLimits
-	acc   []accum
+	// ratios and limBuf back lim when the workspace asks the limits
+	// itself (an audit without cached limits)
+	ratios []float64
+	limBuf []ratings.Limit
+	acc    []accum
 	// worst peak of each node to ground over the run, and its case
 	nodePk     []float64
 	nodePkCase []int
@@ -395,7 +400,8 @@ func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 	n := len(c.Elements)
 	w := &workspace{c: c, sw: circuits.NewSplitWork(c), carr: circuits.NewSplit(c),
 		hz:  make([]complex128, len(e.levels)),
-		lim: make([]partLimits, n), acc: make([]accum, n), hEMF: make([]float64, len(e.levels)),
+		lim: make([]partLimits, n), ratios: make([]float64, n*len(e.levels)),
+		acc: make([]accum, n), hEMF: make([]float64, len(e.levels)),
 		dcV: make([]float64, n), dcI: make([]float64, n), dcL: make([]float64, n), dcP: make([]float64, n),
 		dcNode: make([]float64, len(c.Nodes))}
 	for range e.levels {
@@ -500,7 +506,11 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 				return nw, err
 			}
 		}
-		copy(w.lim, e.lims[fi])
+		if lims := e.lims.get(); lims != nil {
+			copy(w.lim, lims[fi])
+		} else {
+			e.limitsAt(f, w.lim, w.ratios, &w.limBuf)
+		}
 		e.setAntenna(w, fi, f)
 		e.harmonicSums(w)
 		base := fi * e.perCarrier
@@ -663,7 +673,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 				q[qPdiss] = floor
 			}
 		}
-		if rp.Core != nil && rp.Area > 0 {
+		if rp.Core != nil && rp.Area > 0 && e.heats(&w.acc[i], kind, q[qPdiss]) {
 			heat = rp.Heating(q[qPdiss], e.heatT, e.Cond.Duty)
 			q[qTemp] = e.Cond.Ambient + heat.Rise
 			has[qTemp] = true
@@ -686,6 +696,16 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	q[qArc], dcq[qArc] = q[qVpk], dcq[qVpk]
 	has[qArc] = true
 	e.keep(w, i, ci, kind, &q, &has)
+}
+
+// heats reports whether a case dissipating pd can raise the part's worst
+// temperature: the rise grows with the dissipation (ratings.Part.Heating;
+// TestHeatingRisesWithDissipation), so a case that dissipates no more than
+// the worst case of its kind so far heats no more, and its power law is
+// not worth evaluating. Every maximum, case and utilisation kept is the
+// same either way.
+func (e *Engine) heats(a *accum, kind CaseKind, pd float64) bool {
+	return e.everyHeat || a.kindCase[kind][qTemp] < 0 || a.kindCase[kind][qPdiss] < 0 || pd > a.kind[kind][qPdiss]
 }
 
 // keep folds one case's quantities of part i into its running worst.
@@ -787,8 +807,14 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 func exactWorst(s *circuits.Split, z0, x0, x1, ca complex128, ra float64) (complex128, float64) {
 	m := x0 + ca*x1
 	u := complex(1, 0)
-	if r := m / x1; cmplx.Abs(r) > 0 {
-		u = r / complex(cmplx.Abs(r), 0)
+	// the direction of m/x1 is that of m·x̄1, found without a division;
+	// a product below the float range (deep in a stopband) divides
+	r := m * cmplx.Conj(x1)
+	if r == 0 && m != 0 {
+		r = m / x1
+	}
+	if a := cmplx.Abs(r); a > 0 {
+		u = r * complex(1/a, 0)
 	}
 	alpha := ca + complex(ra, 0)*u
 	th := 0.0
@@ -959,9 +985,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 // limitsAt asks the ratings layer for every part's derated limits at
 // carrier f. Limits depend on the nominal parts only, so the engine asks
 // once per carrier and every tolerance trial reuses the answer.
-func (e *Engine) limitsAt(f float64) []partLimits {
-	out := make([]partLimits, len(e.C.Elements))
-	ratios := make([]float64, len(e.C.Elements)*len(e.levels))
+func (e *Engine) limitsAt(f float64, out []partLimits, ratios []float64, buf *[]ratings.Limit) []partLimits {
 	for i := range ratios {
 		ratios[i] = 1
 	}
@@ -978,8 +1002,8 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 		}
 		// numbers only: the text of a limit is formatted when a verdict
 		// needs it (judge), not for every part at every carrier
-		e.limBuf = rp.AppendLimitValues(e.limBuf[:0], f)
-		for _, l := range e.limBuf {
+		*buf = rp.AppendLimitValues((*buf)[:0], f)
+		for _, l := range *buf {
 			if qi := qIndex(l.Quantity); qi >= 0 && l.Abs > 0 && l.Derated > 0 {
 				pl.derated[qi] = l.Derated
 				pl.absRatio[qi] = l.Abs / l.Derated
@@ -994,9 +1018,9 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 		if rp.Wire > 0 {
 			pl.dcArea = ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper) / (math.Pi * rp.Wire * rp.Wire / 4)
 		}
-		for h := range e.levels {
-			if rp.Wire > 0 {
-				a0 := ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper)
+		if rp.Wire > 0 {
+			a0 := ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper)
+			for h := range e.levels {
 				ah := ratings.ConductingArea(float64(h+2)*f, rp.Wire, ratings.Rho20Copper)
 				if a0 > 0 && ah > 0 {
 					pl.areaRatio[h] = a0 / ah
@@ -1005,6 +1029,40 @@ func (e *Engine) limitsAt(f float64) []partLimits {
 		}
 	}
 	return out
+}
+
+// cacheLimits asks every carrier's limits once, in one block, for
+// tolerance trials to share (read only) before they start.
+func (e *Engine) cacheLimits() [][]partLimits {
+	e.lims.once.Do(func() {
+		n, nh := len(e.C.Elements), len(e.levels)
+		slab := make([]partLimits, len(e.carriers)*n)
+		ratios := make([]float64, len(e.carriers)*n*nh)
+		var buf []ratings.Limit
+		lims := make([][]partLimits, len(e.carriers))
+		for fi, f := range e.carriers {
+			lims[fi] = e.limitsAt(f, slab[fi*n:(fi+1)*n:(fi+1)*n], ratios[fi*n*nh:(fi+1)*n*nh:(fi+1)*n*nh], &buf)
+		}
+		e.lims.p.Store(&lims)
+	})
+	return e.lims.get()
+}
+
+// limitStore is an engine's cached limits, shared by copies of the engine
+// (part-fault runs) so that one filling serves all.
+type limitStore struct {
+	once sync.Once
+	p    atomic.Pointer[[][]partLimits]
+}
+
+func (s *limitStore) get() [][]partLimits {
+	if s == nil {
+		return nil // an engine made only to index cases (retune.go)
+	}
+	if l := s.p.Load(); l != nil {
+		return *l
+	}
+	return nil
 }
 
 // utilOf is a stress over its derated limit; for temperature it is the

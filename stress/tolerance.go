@@ -73,6 +73,7 @@ func (e *Engine) Tolerance(opt TolOptions) (*Tolerance, error) {
 	if workers > opt.Trials {
 		workers = opt.Trials
 	}
+	lims := e.cacheLimits()
 	n := len(e.C.Elements)
 	tolV, tolQ := make([]float64, n), make([]float64, n)
 	for i, el := range e.C.Elements {
@@ -193,7 +194,7 @@ func (e *Engine) Tolerance(opt TolOptions) (*Tolerance, error) {
 				continue
 			}
 			sk := all.vals[k]
-			tq := TolQuantity{Quantity: Quantities[q], Rated: ratio[k] > 0, Advice: len(e.lims) > 0 && e.lims[0][i].advice[q],
+			tq := TolQuantity{Quantity: Quantities[q], Rated: ratio[k] > 0, Advice: len(lims) > 0 && lims[0][i].advice[q],
 				Median: sk.Quantile(0.5), P99: sk.Quantile(0.99), Max: sk.Max(),
 				OverDerated: float64(all.overD[k]) / float64(opt.Trials),
 				OverRating:  float64(all.overR[k]) / float64(opt.Trials)}
