@@ -42,6 +42,21 @@ type Case struct {
 	Note    string  // retuned cases: the settings the case was solved at
 }
 
+// ExactCase is an exact worst load of the SWR circle recorded by an
+// audit, kept compact: one is recorded each time a part's worst moves to
+// one, and most are overtaken by later carriers. Section.Case expands it.
+type ExactCase struct {
+	F       float64
+	Theta   float64 // reflection angle, radians
+	Carrier int     // index of the carrier (its antenna is the circle's centre)
+}
+
+// exactCase expands a recorded exact worst into a case.
+func (e *Engine) exactCase(x ExactCase) Case {
+	return Case{F: x.F, Kind: Circle, Load: e.circleLoadAt(e.centre[x.Carrier], x.Theta),
+		Theta: x.Theta * 180 / math.Pi, OffBand: x.Carrier >= e.nBand, Exact: true}
+}
+
 // Describe renders the case for people.
 func (c Case) Describe() string {
 	if c.Note != "" {
@@ -242,7 +257,12 @@ func (e *Engine) phaseAngle(k int) float64 {
 
 // circleLoad is sampled phase k of the SWR circle round centre zc.
 func (e *Engine) circleLoad(zc complex128, k int) circuits.Load {
-	return circuits.LoadOnCircle(zc, e.Cond.SWR, e.phaseAngle(k))
+	return e.circleLoadAt(zc, e.phaseAngle(k))
+}
+
+// circleLoadAt is the load at reflection angle th on the SWR circle.
+func (e *Engine) circleLoadAt(zc complex128, th float64) circuits.Load {
+	return circuits.LoadOnCircle(zc, e.Cond.SWR, th)
 }
 
 // NumCases is the number of cases audited.
@@ -371,7 +391,7 @@ type workspace struct {
 	// record makes exact circle worst cases into cases of their own
 	// (extra, indexed from NumCases()); only the nominal audit records
 	record bool
-	extra  []Case
+	extra  []ExactCase
 	heat   ratings.Heat // the thermal state of the part evalPart last judged
 	tx     TxResult     // what the transmitter sees, worst over the run
 	// the antenna at the current carrier (the SWR circle's centre), its
@@ -840,8 +860,7 @@ func (e *Engine) circleIndex(w *workspace, first int, th float64, disc bool) int
 // record keeps the exact worst load at angle th as a case of its own.
 func (e *Engine) record(w *workspace, first int, f, th float64) {
 	fi := (first - 1) / e.perCarrier
-	w.extra = append(w.extra, Case{F: f, Kind: Circle, Load: circuits.LoadOnCircle(w.zc, e.Cond.SWR, th),
-		Theta: th * 180 / math.Pi, OffBand: fi >= e.nBand, Exact: true})
+	w.extra = append(w.extra, ExactCase{F: f, Theta: th, Carrier: fi})
 }
 
 // uses reports whether case ci is any of the part's worst cases.

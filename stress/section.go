@@ -466,7 +466,7 @@ type Section struct {
 	Tolerance *Tolerance
 	// Extra are the exact worst loads found on the SWR circle, cases
 	// NumCases … NumCases+len(Extra)−1.
-	Extra []Case
+	Extra []ExactCase
 	// Retune is set when the variable parts were retuned per load
 	// (retune.go).
 	Retune *Retune
@@ -553,7 +553,7 @@ func mmLabel(d float64) string { return strconv.FormatFloat(d*1e3, 'g', 3, 64) +
 // Case returns case i of the section.
 func (s *Section) Case(i int) Case {
 	if n := s.Engine.NumCases(); i >= n && i-n < len(s.Extra) {
-		return s.Extra[i-n]
+		return s.Engine.exactCase(s.Extra[i-n])
 	}
 	return s.Engine.Case(i)
 }
