@@ -384,7 +384,10 @@ type workspace struct {
 	// itself (an audit without cached limits)
 	ratios []float64
 	limBuf []ratings.Limit
-	acc    []accum
+	// scanAlpha holds the sampled weights of a harmonic circle that could
+	// not be fitted (harmonicSums)
+	scanAlpha []complex128
+	acc       []accum
 	// worst peak of each node to ground over the run, and its case
 	nodePk     []float64
 	nodePkCase []int
@@ -939,32 +942,26 @@ func (e *Engine) harmonicSums(w *workspace) {
 		s := w.harm[h]
 		eh := w.hEMF[h]
 		for cls := 0; cls < nClass; cls++ {
-			var worst func(x0, x1 complex128) float64
+			// the worst of |x0 + α·x1| over the class's loads: the open
+			// port (α = 0), the short, the matched load, or the continuous
+			// SWR circle (|x0 + c·x1| + r·|x1| on the α circle); a circle
+			// that cannot be fitted scans the sampled phases
+			var hw harmWorst
 			switch {
 			case cls == hOpen:
-				worst = func(x0, x1 complex128) float64 { return mag(x0) }
 			case cls == hShort:
-				a := s.Alpha(circuits.Short)
-				worst = func(x0, x1 complex128) float64 { return mag(x0 + a*x1) }
+				hw.a = s.Alpha(circuits.Short)
 			case e.nPhase == 0:
-				a := s.Alpha(circuits.Load{Z: w.hz[h]})
-				worst = func(x0, x1 complex128) float64 { return mag(x0 + a*x1) }
+				hw.a = s.Alpha(circuits.Load{Z: w.hz[h]})
 			default:
 				if ca, ra, ok := e.alphaCircle(s, w.hz[h]); ok {
-					worst = func(x0, x1 complex128) float64 {
-						return mag(x0+ca*x1) + ra*mag(x1)
-					}
+					hw.a, hw.r = ca, ra
 				} else {
-					worst = func(x0, x1 complex128) float64 {
-						var m float64
-						for k := 0; k < e.nPhase; k++ {
-							l := e.circleLoad(w.hz[h], k)
-							if v := mag(x0 + s.Alpha(l)*x1); v > m {
-								m = v
-							}
-						}
-						return m
+					hw.scan = w.scanAlpha[:0]
+					for k := 0; k < e.nPhase; k++ {
+						hw.scan = append(hw.scan, s.Alpha(e.circleLoad(w.hz[h], k)))
 					}
+					w.scanAlpha = hw.scan
 				}
 			}
 			for i := range c.Elements {
@@ -976,12 +973,12 @@ func (e *Engine) harmonicSums(w *workspace) {
 					e.blockHarmonic(s, w, i, cls, e.harmonicCircles(w, s, h, cls), eh)
 					continue
 				}
-				mv := worst(s.V[0][i], s.V[1][i]) * eh
-				mi := worst(s.I[0][i], s.I[1][i]) * eh
+				mv := hw.of(s.V[0][i], s.V[1][i]) * eh
+				mi := hw.of(s.I[0][i], s.I[1][i]) * eh
 				if e.esl[i] {
 					mv = math.Max(mv, mi/(2*math.Pi*s.F*c.Elements[i].Value))
 				}
-				ml := worst(s.L[0][i], s.L[1][i]) * eh
+				ml := hw.of(s.L[0][i], s.L[1][i]) * eh
 				w.pkV[cls][i] += mv
 				w.pkL[cls][i] += ml
 				w.sqV[cls][i] += mv * mv
@@ -995,10 +992,34 @@ func (e *Engine) harmonicSums(w *workspace) {
 				}
 			}
 			for ni := range c.Nodes {
-				w.nodeH[cls][ni] += worst(s.Node[0][ni], s.Node[1][ni]) * eh
+				w.nodeH[cls][ni] += hw.of(s.Node[0][ni], s.Node[1][ni]) * eh
 			}
 		}
 	}
+}
+
+// harmWorst is a harmonic load class's weight set: one weight a, a
+// circle of weights (centre a, radius r), or sampled weights (scan).
+type harmWorst struct {
+	a    complex128
+	r    float64
+	scan []complex128
+}
+
+// of is the largest |x0 + α·x1| over the set.
+func (h *harmWorst) of(x0, x1 complex128) float64 {
+	if h.scan != nil {
+		var m float64
+		for _, a := range h.scan {
+			m = math.Max(m, mag(x0+a*x1))
+		}
+		return m
+	}
+	v := mag(x0 + h.a*x1)
+	if h.r != 0 {
+		v += h.r * mag(x1)
+	}
+	return v
 }
 
 // limitsAt asks the ratings layer for every part's derated limits at
