@@ -208,7 +208,12 @@ func (s *Split) MaxNodeV(alpha complex128, e float64) float64 {
 func LoadOnCircle(z0 complex128, swr, theta float64) Load {
 	g := (swr - 1) / (swr + 1)
 	sin, cos := math.Sincos(theta)
-	gam := complex(g*cos, g*sin)
+	return LoadForGamma(z0, complex(g*cos, g*sin))
+}
+
+// LoadForGamma is the load whose power-wave reflection coefficient against
+// z0 is gam (see LoadOnCircle): Z = (z0 + Γ·z0*)/(1 − Γ), |Γ| < 1.
+func LoadForGamma(z0, gam complex128) Load {
 	return Load{Z: (z0 + gam*conj(z0)) * recip(1-gam)}
 }
 

@@ -152,17 +152,20 @@ type Engine struct {
 	carriers     []float64
 	nBand        int
 	nPhase       int // phases sampled on the SWR circle (0: no circle)
-	faults       []CaseKind
-	perCarrier   int
-	rparts       []*ratings.Part
-	forceScan    bool         // tests: scan the sampled phases instead of the exact worst
-	everyHeat    bool         // tests: evaluate the thermal model at every case (see heats)
-	heatT        float64      // key-down time the temperature is judged at, s (+Inf steady)
-	inductance   []float64    // coupled windings: L, for the flux-linkage loss
-	block        []bool       // judged as a two-port by its ports (stress/block.go)
-	esl          []bool       // capacitors with series inductance: the dielectric sees I/(ωC)
-	selfC        []bool       // inductors with self-capacitance: winding and terminal currents differ
-	centre       []complex128 // per carrier: the antenna load, the SWR circle's centre
+	// tri are three reflection coefficients on the SWR circle, 120° apart:
+	// the loads alphaCircle fits the α circle through
+	tri        [3]complex128
+	faults     []CaseKind
+	perCarrier int
+	rparts     []*ratings.Part
+	forceScan  bool         // tests: scan the sampled phases instead of the exact worst
+	everyHeat  bool         // tests: evaluate the thermal model at every case (see heats)
+	heatT      float64      // key-down time the temperature is judged at, s (+Inf steady)
+	inductance []float64    // coupled windings: L, for the flux-linkage loss
+	block      []bool       // judged as a two-port by its ports (stress/block.go)
+	esl        []bool       // capacitors with series inductance: the dielectric sees I/(ωC)
+	selfC      []bool       // inductors with self-capacitance: winding and terminal currents differ
+	centre     []complex128 // per carrier: the antenna load, the SWR circle's centre
 	// lims holds every carrier's limits for tolerance trials, asked once
 	// and shared (cacheLimits); a single audit asks them per carrier into
 	// its workspace instead, which costs no more and allocates nothing
@@ -191,6 +194,11 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 		// the sampled loads are drawn when a case needs one (circleLoad):
 		// the exact worst of the continuous circle visits none of them
 		e.nPhase = cond.Phases
+		g := (cond.SWR - 1) / (cond.SWR + 1)
+		for k := range e.tri {
+			sin, cos := math.Sincos(2 * math.Pi * float64(k) / 3)
+			e.tri[k] = complex(g*cos, g*sin)
+		}
 	}
 	band := cond.Carriers()
 	e.nBand = len(band) - len(cond.CarrierAlso)
@@ -401,6 +409,11 @@ type workspace struct {
 	// circle, and the antenna at each harmonic of that carrier
 	zc complex128
 	hz []complex128
+	// the α circle of the carrier's SWR circle (alphaCircle; caOK false
+	// when it could not be fitted)
+	ca   complex128
+	ra   float64
+	caOK bool
 	// limits per part at the current carrier
 	dcq [nQ]float64 // the DC share of each stress evalPart last computed
 	// the DC solution: per part V, I, flux linkage and heat; per node V
@@ -550,6 +563,7 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 			e.evalCase(w, base+1+e.nPhase+len(e.Cond.Loads)+j, k, l, f, &nw)
 		}
 		if e.nPhase > 0 {
+			w.ca, w.ra, w.caOK = e.alphaCircle(w.carr, w.zc)
 			e.circleCases(w, base+1, f, &nw)
 			e.txCircle(w, base+1)
 		}
@@ -781,7 +795,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		scan()
 		return
 	}
-	ca, ra, ok := e.alphaCircle(s, w.zc)
+	ca, ra, ok := w.ca, w.ra, w.caOK
 	if !ok {
 		scan()
 		return
@@ -881,7 +895,7 @@ func (a *accum) uses(ci int) bool {
 func (e *Engine) alphaCircle(s *circuits.Split, z0 complex128) (complex128, float64, bool) {
 	var a [3]complex128
 	for k := 0; k < 3; k++ {
-		a[k] = s.Alpha(circuits.LoadOnCircle(z0, e.Cond.SWR, 2*math.Pi*float64(k)/3))
+		a[k] = s.Alpha(circuits.LoadForGamma(z0, e.tri[k]))
 	}
 	if c, r, ok := circleThrough(a[0], a[1], a[2]); ok {
 		return c, r, true

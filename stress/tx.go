@@ -162,7 +162,7 @@ func swrWords(v float64) string {
 // search; the worst reported is never below any sampled load.
 func (e *Engine) txCircle(w *workspace, first int) {
 	s := w.carr
-	ca, ra, ok := e.alphaCircle(s, w.zc)
+	ca, ra, ok := w.ca, w.ra, w.caOK
 	const n = 72
 	if !ok || ra == 0 || e.nPhase <= n {
 		for j := 0; j < e.nPhase; j++ {
