@@ -818,11 +818,11 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 			if x[1] == 0 {
 				continue // the load does not reach this quantity; other cases hold it
 			}
-			a, th := exactWorst(w.carr, w.zc, x[0], x[1], ca, ra)
-			ci := e.circleIndex(w, first, th, disc)
+			a := exactWorst(x[0], x[1], ca, ra)
+			ci := e.circleIndex(w, first, a, disc)
 			e.evalPart(w, i, ci, Circle, hNormal, a, scale, k, f)
 			if ci >= e.NumCases() && w.acc[i].uses(ci) {
-				e.record(w, first, f, th)
+				e.record(w, first, f, a)
 			}
 		}
 	}
@@ -830,18 +830,18 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		if s.Node[1][ni] == 0 {
 			continue
 		}
-		a, th := exactWorst(w.carr, w.zc, s.Node[0][ni], s.Node[1][ni], ca, ra)
-		ci := e.circleIndex(w, first, th, disc)
+		a := exactWorst(s.Node[0][ni], s.Node[1][ni], ca, ra)
+		ci := e.circleIndex(w, first, a, disc)
 		e.evalNode(w, ni, ci, hNormal, a, scale, k, nw)
 		if ci >= e.NumCases() && (nw.at == ci || w.nodePkCase[ni] == ci) {
-			e.record(w, first, f, th)
+			e.record(w, first, f, a)
 		}
 	}
 }
 
 // exactWorst returns the α on the circle (centre ca, radius ra) where
-// |x0 + α·x1| is largest, and the reflection angle θ of its load.
-func exactWorst(s *circuits.Split, z0, x0, x1, ca complex128, ra float64) (complex128, float64) {
+// |x0 + α·x1| is largest (thetaOf gives its load's reflection angle).
+func exactWorst(x0, x1, ca complex128, ra float64) complex128 {
 	m := x0 + ca*x1
 	u := complex(1, 0)
 	// the direction of m/x1 is that of m·x̄1, found without a division;
@@ -853,31 +853,36 @@ func exactWorst(s *circuits.Split, z0, x0, x1, ca complex128, ra float64) (compl
 	if a := cmplx.Abs(r); a > 0 {
 		u = r * complex(1/a, 0)
 	}
-	alpha := ca + complex(ra, 0)*u
-	th := 0.0
-	if alpha != 0 {
-		th = circuits.ReflectionAngle(z0, -s.Voc/alpha-s.Zth)
-	}
-	return alpha, th
+	return ca + complex(ra, 0)*u
 }
 
-// circleIndex is the case index an exact worst at angle th is filed
+// thetaOf is the reflection angle on the carrier's SWR circle of the load
+// that gives weight α (0 for α = 0, the open port).
+func (e *Engine) thetaOf(w *workspace, alpha complex128) float64 {
+	if alpha == 0 {
+		return 0
+	}
+	s := w.carr
+	return circuits.ReflectionAngle(w.zc, -s.Voc/alpha-s.Zth)
+}
+
+// circleIndex is the case index an exact worst with weight α is filed
 // under: when the workspace records (the nominal audit), the next exact
-// case, kept only if it becomes someone's worst; otherwise (tolerance
-// trials keep values only, or an underflowed disc) the nearest sampled
-// phase.
-func (e *Engine) circleIndex(w *workspace, first int, th float64, disc bool) int {
+// case, kept only if it becomes someone's worst (its angle is found
+// then, by record); otherwise (tolerance trials keep values only, or an
+// underflowed disc) the nearest sampled phase.
+func (e *Engine) circleIndex(w *workspace, first int, alpha complex128, disc bool) int {
 	if w.record && !disc {
 		return e.NumCases() + len(w.extra)
 	}
 	n := e.nPhase
-	return first + int(math.Round(th/(2*math.Pi)*float64(n)))%n
+	return first + int(math.Round(e.thetaOf(w, alpha)/(2*math.Pi)*float64(n)))%n
 }
 
-// record keeps the exact worst load at angle th as a case of its own.
-func (e *Engine) record(w *workspace, first int, f, th float64) {
+// record keeps the exact worst load with weight α as a case of its own.
+func (e *Engine) record(w *workspace, first int, f float64, alpha complex128) {
 	fi := (first - 1) / e.perCarrier
-	w.extra = append(w.extra, ExactCase{F: f, Theta: th, Carrier: fi})
+	w.extra = append(w.extra, ExactCase{F: f, Theta: e.thetaOf(w, alpha), Carrier: fi})
 }
 
 // uses reports whether case ci is any of the part's worst cases.

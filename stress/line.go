@@ -83,7 +83,6 @@ func (e *Engine) evalLine(w *workspace, l *circuits.LineSpec, i, ci int, kind Ca
 func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca complex128, ra, scale, k, f float64) {
 	q, has, av, ai, ap := e.lineQ(w, l, i, hNormal, ca, ra, scale, k, f)
 	disc := ca == 0 // an underflowed α circle bounded by a disc: no load to name
-	s := w.carr
 	for _, grp := range []struct {
 		alpha complex128
 		qs    []int
@@ -92,14 +91,10 @@ func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca
 		for _, qi := range grp.qs {
 			h[qi] = has[qi]
 		}
-		th := 0.0
-		if grp.alpha != 0 {
-			th = circuits.ReflectionAngle(w.zc, -s.Voc/grp.alpha-s.Zth)
-		}
-		ci := e.circleIndex(w, first, th, disc)
+		ci := e.circleIndex(w, first, grp.alpha, disc)
 		e.keep(w, i, ci, Circle, &q, &h)
 		if ci >= e.NumCases() && w.acc[i].uses(ci) {
-			e.record(w, first, f, th)
+			e.record(w, first, f, grp.alpha)
 		}
 	}
 }

@@ -206,9 +206,8 @@ func (e *Engine) txCircle(w *workspace, first int) {
 	}
 	if v.SWR > w.tx.Worst.SWR && w.record && ca != 0 {
 		// the new worst: an exact case of its own, as for the parts
-		th := circuits.ReflectionAngle(w.zc, -s.Voc/a-s.Zth)
-		v.Case = e.circleIndex(w, first, th, false)
-		e.record(w, first, s.F, th)
+		v.Case = e.circleIndex(w, first, a, false)
+		e.record(w, first, s.F, a)
 	}
 	w.keepTx(v, Circle)
 }
