@@ -526,10 +526,14 @@ func (p *pdfw) pillFit(x, y, h float64, v ratings.Verdict, maxW float64) float64
 	word := strings.ToUpper(v.String())
 	size := h * 2.1
 	p.font("B", size)
-	for p.width(word)+h*0.9 > maxW && size > 4 {
+	// a text's width is its glyph units times the size (as gofpdf's
+	// GetStringWidth): the size that fits is found without setting each
+	// size tried, which would write a font operator for every step
+	units, k := float64(p.f.GetStringSymbolWidth(word)), p.f.GetConversionRatio()
+	for units*(size/k)/1000+h*0.9 > maxW && size > 4 {
 		size -= 0.25
-		p.font("B", size)
 	}
+	p.font("B", size)
 	w := math.Min(p.width(word)+h*0.9, maxW)
 	f := p.f
 	p.fill(verdictColor(v))

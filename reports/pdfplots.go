@@ -260,17 +260,19 @@ func (p *pdfw) loadChart(s *stress.Section, fp *FilterPlot, top float64) {
 	}
 	for _, x := range []float64{0.2, 0.5, 1, 2, 5} {
 		for _, sgn := range []float64{1, -1} {
-			var pts []gofpdf.PointType
+			// one path through the points, not a line per step
 			for k := 0; k <= 60; k++ {
 				t := float64(k) / 60 * 0.999
 				r := t / (1 - t)
 				g := (complex(r, sgn*x) - 1) / (complex(r, sgn*x) + 1)
 				px, py := at(g)
-				pts = append(pts, gofpdf.PointType{X: px, Y: py})
+				if k == 0 {
+					f.MoveTo(px, py)
+				} else {
+					f.LineTo(px, py)
+				}
 			}
-			for k := 1; k < len(pts); k++ {
-				f.Line(pts[k-1].X, pts[k-1].Y, pts[k].X, pts[k].Y)
-			}
+			f.DrawPath("D")
 		}
 	}
 	f.Line(cx-chartR, cy, cx+chartR, cy)
@@ -309,10 +311,12 @@ func (p *pdfw) loadChart(s *stress.Section, fp *FilterPlot, top float64) {
 	if len(circle) > 1 {
 		p.draw(colAccent)
 		f.SetLineWidth(0.5)
-		for k := range circle {
-			a, b := circle[k], circle[(k+1)%len(circle)]
-			f.Line(a.X, a.Y, b.X, b.Y)
+		f.MoveTo(circle[0].X, circle[0].Y)
+		for _, c := range circle[1:] {
+			f.LineTo(c.X, c.Y)
 		}
+		f.ClosePath()
+		f.DrawPath("D")
 	}
 	// fault labels outside the circle
 	p.font("", 6)
