@@ -137,7 +137,7 @@ func renderPDF(doc *ReportDoc, ownDeflate bool) ([]byte, error) {
 		return nil, fmt.Errorf("report: %w", err)
 	}
 	if ownDeflate {
-		total := [][2][]byte{{utf16BE(pageTotal), utf16BE(strconv.Itoa(pages))}}
+		total := [2][]byte{utf16BE(pageTotal), utf16BE(strconv.Itoa(pages))}
 		if b, ok := deflatePages(out.b, total); ok {
 			return b, nil
 		}
@@ -346,7 +346,28 @@ func (p *pdfw) split(s string, w float64) []string {
 	if !strings.ContainsAny(s, " \n") && p.f.GetStringWidth(s) > w {
 		return p.splitPath(s, w)
 	}
+	if p.oneLine(s, w) {
+		return []string{s}
+	}
 	return p.f.SplitText(s, w)
+}
+
+// oneLine reports whether SplitText would return s whole: most table
+// cells fit, and SplitText allocates runes and lines to say so. Its test
+// is the sum of the glyphs' widths against the width in glyph units,
+// rounded up; for printable ASCII, which every font has with ordinary
+// widths, GetStringSymbolWidth is that same sum.
+func (p *pdfw) oneLine(s string, w float64) bool {
+	if s == "" {
+		return false
+	}
+	for i := 0; i < len(s); i++ {
+		if s[i] < 0x20 || s[i] >= 0x7F {
+			return false
+		}
+	}
+	_, size := p.f.GetFontSize()
+	return p.f.GetStringSymbolWidth(s) <= int(math.Ceil(w*1000/size))
 }
 
 // splitPath breaks a word with no spaces, such as a file path, after a

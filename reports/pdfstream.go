@@ -25,9 +25,10 @@ import (
 // trailer at the end. When anything differs it reports false and the
 // caller keeps the document as it is: valid, only larger.
 //
-// Each aliases pair is replaced in every page stream before it is
-// compressed, as gofpdf's own alias replacement does (the page total).
-func deflatePages(doc []byte, aliases [][2][]byte) ([]byte, bool) {
+// alias[0], when not empty, is replaced by alias[1] in every page stream
+// before it is compressed, as gofpdf's own alias replacement does (the
+// page total).
+func deflatePages(doc []byte, alias [2][]byte) ([]byte, bool) {
 	// cross-reference table
 	sx := bytes.LastIndex(doc, []byte("startxref\n"))
 	if sx < 0 {
@@ -114,21 +115,28 @@ func deflatePages(doc []byte, aliases [][2][]byte) ([]byte, bool) {
 	var wg sync.WaitGroup
 	for range workers {
 		wg.Go(func() {
-			zw, _ := zlib.NewWriterLevel(nil, zlib.BestSpeed)
+			zw := zlibWriters.Get().(*zlib.Writer)
+			defer zlibWriters.Put(zw)
 			for {
 				n := int(next.Add(1) - 1)
 				if n >= len(pages) {
 					return
 				}
 				pt := &parts[pages[n]]
-				data := pt.data
-				for _, a := range aliases {
-					if bytes.Contains(data, a[0]) {
-						data = bytes.ReplaceAll(data, a[0], a[1])
-					}
-				}
-				z := bytes.NewBuffer(make([]byte, 0, len(data)/3+64))
+				z := bytes.NewBuffer(make([]byte, 0, len(pt.data)/3+64))
 				zw.Reset(z)
+				// the alias replaced on the way in (deflate's output does
+				// not depend on how its input is cut into writes)
+				data := pt.data
+				for len(alias[0]) > 0 {
+					i := bytes.Index(data, alias[0])
+					if i < 0 {
+						break
+					}
+					zw.Write(data[:i])
+					zw.Write(alias[1])
+					data = data[i+len(alias[0]):]
+				}
 				zw.Write(data)
 				zw.Close()
 				pt.z = z.Bytes()
@@ -165,3 +173,11 @@ func deflatePages(doc []byte, aliases [][2][]byte) ([]byte, bool) {
 }
 
 var contentsRef = regexp.MustCompile(`/Contents (\d+) 0 R`)
+
+// zlibWriters keeps page compressors between documents: a new one
+// allocates and clears about a megabyte of tables; Reset starts it afresh,
+// so its output is the same.
+var zlibWriters = sync.Pool{New: func() any {
+	zw, _ := zlib.NewWriterLevel(nil, zlib.BestSpeed)
+	return zw
+}}

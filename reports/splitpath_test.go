@@ -34,3 +34,27 @@ func TestFileNamesWrapAtSeparators(t *testing.T) {
 		}
 	}
 }
+
+// TestOneLineAsSplitText: the shortcut that keeps a fitting cell whole
+// says so only where gofpdf's SplitText (the reference) gives that one
+// line, at widths on both sides of each text's own width and in every
+// font the report uses.
+func TestOneLineAsSplitText(t *testing.T) {
+	p := newPDF(&ReportDoc{Bank: &stress.Bank{}}, true)
+	p.f.AddPage()
+	texts := []string{"C7a", "peak voltage", "322 V", "rated 630 V peak", "12.5-j180 Ω", "a b", " lead", "x", "iron powder, mu=10 (20 x 11 x 6 mm)"}
+	for _, set := range []func(){func() { p.font("", 8) }, func() { p.font("B", 6.8) }, func() { p.mono(7.2) }} {
+		set()
+		for _, s := range texts {
+			w0 := p.width(s)
+			for _, k := range []float64{0.5, 0.9, 0.999, 1, 1.001, 1.2} {
+				w := w0 * k
+				if p.oneLine(s, w) {
+					if got := p.f.SplitText(s, w); len(got) != 1 || got[0] != s {
+						t.Errorf("%q at %.4f mm: shortcut keeps it whole, SplitText gives %q", s, w, got)
+					}
+				}
+			}
+		}
+	}
+}
