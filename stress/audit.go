@@ -161,7 +161,6 @@ type Engine struct {
 	forceScan  bool         // tests: scan the sampled phases instead of the exact worst
 	everyHeat  bool         // tests: evaluate the thermal model at every case (see heats)
 	heatT      float64      // key-down time the temperature is judged at, s (+Inf steady)
-	inductance []float64    // coupled windings: L, for the flux-linkage loss
 	block      []bool       // judged as a two-port by its ports (stress/block.go)
 	esl        []bool       // capacitors with series inductance: the dielectric sees I/(ωC)
 	selfC      []bool       // inductors with self-capacitance: winding and terminal currents differ
@@ -225,7 +224,6 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 	}
 	for i := range c.Elements {
 		e.block = append(e.block, isBlock(c, i))
-		e.inductance = append(e.inductance, c.Elements[i].Value)
 		e.esl = append(e.esl, c.Elements[i].Kind == circuits.Capacitor && c.Elements[i].SeriesInductance() > 0)
 		e.selfC = append(e.selfC, c.Elements[i].Kind == circuits.Inductor && c.Elements[i].SelfCapacitance() > 0)
 	}
@@ -684,7 +682,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		// linkage, (ω/Q)·|λ|²/L = R·|λ/L|²: for windings sharing one core
 		// that is the core's whole loss (the load's ampere-turns cancel),
 		// for a loose coupling it is the lone coil's R·|I|²
-		im := mag(s.L[0][i]+alpha*s.L[1][i]) * scale / e.inductance[i]
+		im := mag(s.L[0][i]+alpha*s.L[1][i]) * scale / w.c.Elements[i].Inductance(f)
 		prf = s.R[i] * im * im
 	}
 	q[qPdiss] = (prf+k*k*w.sumP[cls][i])*avg + pdc
@@ -1004,7 +1002,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 				w.sqI[cls][i] += mi * mi
 				w.sqIJ[cls][i] += mi * mi * w.lim[i].areaRatio[h]
 				if s.Coupled[i] {
-					im := ml / e.inductance[i]
+					im := ml / c.Elements[i].Inductance(s.F)
 					w.sumP[cls][i] += s.R[i] * im * im
 				} else {
 					w.sumP[cls][i] += s.R[i] * mi * mi
