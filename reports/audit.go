@@ -307,7 +307,7 @@ func BankVerdictWords(b *stress.Bank) string {
 }
 
 func bankVerdictWords(b *stress.Bank) string {
-	if b.Verdict == ratings.Marginal && adviceOnly(b) {
+	if b.AdviceOnly() {
 		return "MARGINAL — advice only: a core's flux at average power is above its heating guide; no part exceeds a derated limit or a rating"
 	}
 	if b.Verdict != ratings.Fail {
@@ -326,41 +326,6 @@ func bankVerdictWords(b *stress.Bank) string {
 		return "FAIL — transmitter protection: the transmitter sees an SWR above tx-swr-max (no part exceeds its rating)"
 	}
 	return VerdictWords(b.Verdict)
-}
-
-// adviceOnly reports whether every marginal verdict in the bank comes from
-// a guide (advice) rather than from a derated limit.
-func adviceOnly(b *stress.Bank) bool {
-	any := false
-	for _, s := range b.Sections {
-		if s.Tx.Verdict >= ratings.Marginal {
-			return false
-		}
-		for _, p := range s.Parts {
-			if p.Verdict < ratings.Marginal {
-				continue
-			}
-			if !markedByAdvice(p) {
-				return false
-			}
-			any = true
-		}
-	}
-	return any
-}
-
-// markedByAdvice reports whether a marginal part is marginal only through a
-// guide: every rated quantity is within its derated limit.
-func markedByAdvice(p *stress.PartResult) bool {
-	if p.Verdict != ratings.Marginal {
-		return false
-	}
-	for _, st := range p.Stress {
-		if st.Verdict >= ratings.Marginal && !st.Limit.Advice {
-			return false
-		}
-	}
-	return true
 }
 
 // VerdictWords is the overall verdict in a sentence.
@@ -588,7 +553,7 @@ func bindingText(s *stress.Section, p *stress.PartResult) string {
 		c = best.Case
 	}
 	out := QuantityLabel(best.Quantity) + ": " + s.Case(c).Describe()
-	if markedByAdvice(p) {
+	if p.AdviceOnly() {
 		out += "; marginal only by the heating guide (advice)"
 	}
 	return out

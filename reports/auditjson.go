@@ -191,7 +191,10 @@ type JSONAudit struct {
 	Verdict  string  `json:"verdict"`
 	// AdviceOnly: the verdict is marginal only through a guide (the
 	// heating guide): no derated limit or rating is exceeded
-	AdviceOnly bool            `json:"verdict_advice_only,omitempty"`
+	AdviceOnly bool `json:"verdict_advice_only,omitempty"`
+	// Rated is the verdict of the rated quantities alone (guides left
+	// out): what the exit status judges unless --fail-on advice
+	Rated      string          `json:"verdict_rated"`
 	SafePowerW *float64        `json:"safe_power_w"`
 	Limiting   JSONLimiting    `json:"limiting"`
 	Cases      int             `json:"cases"`
@@ -203,7 +206,7 @@ type JSONAudit struct {
 func AuditJSON(b *stress.Bank) *JSONAudit {
 	doc := &JSONAudit{Verdict: b.Verdict.String(), SafePowerW: jsonNum(b.SafeW),
 		Limiting: JSONLimiting{File: b.LimitFile, Component: b.LimitPart, Quantity: string(b.LimitQ)}}
-	doc.AdviceOnly = b.Verdict == ratings.Marginal && adviceOnly(b)
+	doc.AdviceOnly, doc.Rated = b.AdviceOnly(), b.Rated.String()
 	for i, s := range b.Sections {
 		if i == 0 {
 			doc.PowerW, doc.Mode, doc.AvgRatio = s.Conditions.PowerW, s.Conditions.Mode, s.Conditions.AvgRatio

@@ -100,11 +100,14 @@ type Stress struct {
 
 // PartResult is one part's audit.
 type PartResult struct {
-	Name     string
-	Kind     circuits.Kind
-	Value    float64
-	Stress   map[ratings.Quantity]*Stress
-	Verdict  ratings.Verdict
+	Name    string
+	Kind    circuits.Kind
+	Value   float64
+	Stress  map[ratings.Quantity]*Stress
+	Verdict ratings.Verdict
+	// Rated is the verdict of the rated quantities alone: a part marginal
+	// only through a guide (advice) is OK here
+	Rated    ratings.Verdict
 	Util     float64 // worst utilisation of derated limits
 	SafeW    float64
 	Limiting ratings.Quantity

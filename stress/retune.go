@@ -152,6 +152,12 @@ func RetuneAudit(c *circuits.Circuit, rs *ratings.Set, cond Conditions, allowUnr
 			if st.Verdict > p.Verdict {
 				p.Verdict = st.Verdict
 			}
+			if st.Limit.Advice {
+				continue // a guide sets neither the use nor the rated verdict (judge)
+			}
+			if st.Verdict > p.Rated {
+				p.Rated = st.Verdict
+			}
 			if st.Util > p.Util {
 				p.Util = st.Util
 			}
@@ -172,6 +178,9 @@ func RetuneAudit(c *circuits.Circuit, rs *ratings.Set, cond Conditions, allowUnr
 	for _, p := range sec.Parts {
 		if p.Verdict > sec.Verdict && !(p.Verdict == ratings.Unrated && allowUnrated) {
 			sec.Verdict = p.Verdict
+		}
+		if p.Rated > sec.Rated && !(p.Rated == ratings.Unrated && allowUnrated) {
+			sec.Rated = p.Rated
 		}
 		if p.SafeW < sec.SafeW {
 			sec.SafeW, sec.LimitPart, sec.LimitQ = p.SafeW, p.Name, p.Limiting

@@ -50,10 +50,14 @@ func (e *Engine) Audit() (*Section, error) {
 	if s.Tx.Verdict > s.Verdict {
 		s.Verdict = s.Tx.Verdict
 	}
+	s.Rated = s.Verdict
 	clearanceFindings(s, e.C, e.R, e.Air())
 	for _, p := range s.Parts {
 		if p.Verdict > s.Verdict && !(p.Verdict == ratings.Unrated && e.AllowUnrated) {
 			s.Verdict = p.Verdict
+		}
+		if p.Rated > s.Rated && !(p.Rated == ratings.Unrated && e.AllowUnrated) {
+			s.Rated = p.Rated
 		}
 		if p.SafeW < s.SafeW {
 			s.SafeW, s.LimitPart, s.LimitQ = p.SafeW, p.Name, p.Limiting
@@ -155,6 +159,9 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 		}
 		if st.Verdict > p.Verdict {
 			p.Verdict = st.Verdict
+		}
+		if st.Verdict > p.Rated && !st.Limit.Advice {
+			p.Rated = st.Verdict
 		}
 		if st.Limit.Advice {
 			continue // a guide never sets the part's use or its safe power
@@ -373,6 +380,7 @@ func (e *Engine) Sweep(n int) []SweepPoint {
 type Bank struct {
 	Sections  []*Section
 	Verdict   ratings.Verdict
+	Rated     ratings.Verdict // the verdict with guides left out (Section.Rated)
 	SafeW     float64
 	LimitFile string
 	LimitPart string
@@ -386,11 +394,23 @@ func NewBank(sections []*Section) *Bank {
 		if s.Verdict > b.Verdict {
 			b.Verdict = s.Verdict
 		}
+		if s.Rated > b.Rated {
+			b.Rated = s.Rated
+		}
 		if s.SafeW < b.SafeW {
 			b.SafeW, b.LimitFile, b.LimitPart, b.LimitQ = s.SafeW, s.File, s.LimitPart, s.LimitQ
 		}
 	}
 	return b
+}
+
+// AdviceOnly reports whether the bank is marginal only through guides
+// (advice): no rated quantity is beyond its derated limit.
+func (b *Bank) AdviceOnly() bool { return b.Verdict == ratings.Marginal && b.Rated < ratings.Marginal }
+
+// AdviceOnly reports whether the part is marginal only through a guide.
+func (p *PartResult) AdviceOnly() bool {
+	return p.Verdict == ratings.Marginal && p.Rated < ratings.Marginal
 }
 
 // Upgrades lists every part and quantity that is not ok, worst first.
@@ -434,9 +454,12 @@ type Section struct {
 	NumCases   int
 	Parts      []*PartResult
 	Verdict    ratings.Verdict
-	SafeW      float64
-	LimitPart  string
-	LimitQ     ratings.Quantity
+	// Rated is the verdict with guides left out (PartResult.Rated): what
+	// the exit status judges unless asked to count advice
+	Rated     ratings.Verdict
+	SafeW     float64
+	LimitPart string
+	LimitQ    ratings.Quantity
 	// AntennaMeasured names the antenna's measured data as written
 	// (empty: the port's z is the antenna)
 	AntennaMeasured string

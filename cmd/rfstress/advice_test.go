@@ -28,7 +28,20 @@ inductor L4 n2 n3 1.2u q=150 core=T1 turns=16 wire=0.8mm
 capacitor C5 n3 gnd 390p dielectric=mica vpk=500 irms=3
 audit power=100 mode=cw freq=7.1M swr=1 harmonics=none
 `)
-	_, text, errText := runCLI(t, "audit", net)
+	code, text, errText := runCLI(t, "audit", net)
+	// a guide is advice: by default it does not fail a build's check;
+	// --fail-on advice asks that it does
+	if code != 0 {
+		t.Errorf("advice-only marginal: exit %d, want 0 under the default --fail-on", code)
+	}
+	for _, fo := range []struct {
+		level string
+		want  int
+	}{{"advice", 1}, {"unrated", 0}, {"marginal", 0}, {"fail", 0}, {"never", 0}} {
+		if c, _, e := runCLI(t, "audit", net, "--fail-on", fo.level); c != fo.want {
+			t.Errorf("--fail-on %s: exit %d, want %d (%s)", fo.level, c, fo.want, e)
+		}
+	}
 	if !strings.Contains(text, "MARGINAL") {
 		t.Fatalf("expected the heating guide to mark the coils marginal:\n%s%s", text, errText)
 	}
@@ -52,8 +65,11 @@ audit power=100 mode=cw freq=7.1M swr=1 harmonics=none
 		t.Fatal(err)
 	}
 	net2 := writeFile(t, "lpf40b.net", strings.Replace(string(src), "680p dielectric=mica vpk=500 irms=4", "680p dielectric=mica vpk=500 irms=0.5", 1))
-	_, text, _ = runCLI(t, "audit", net2)
+	code, text, _ = runCLI(t, "audit", net2)
 	if strings.Contains(text, "advice only") {
 		t.Errorf("a failing rated part is called advice only:\n%s", text)
+	}
+	if code != 1 {
+		t.Errorf("a failing rated part: exit %d, want 1", code)
 	}
 }

@@ -56,7 +56,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	also := fs.StringArray("carrier-also", nil, "extra carrier `frequency` outside the band, e.g. a wrong filter selected (repeatable)")
 	materials := fs.String("materials", "", "`file` of extra core materials (material lines)")
 	allowUnrated := fs.Bool("allow-unrated", false, "let unrated parts pass the overall verdict")
-	failOn := fs.String("fail-on", "unrated", "lowest `verdict` that makes the exit status 1: unrated, marginal, fail or never")
+	failOn := fs.String("fail-on", "unrated", "lowest `verdict` that makes the exit status 1: advice, unrated, marginal, fail or never (a guide, advice, counts only with advice)")
 	caution := fs.Float64("caution-volts", 300, "print a caution when any node exceeds this peak `volts`")
 	jsonPath := fs.String("json", "", "write JSON to `PATH`, or - for stdout")
 	csvPath := fs.String("csv", "", "write the part table as CSV to `PATH`, or - for stdout")
@@ -303,7 +303,13 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 			fmt.Fprintf(stderr, "rfstress: CAUTION: %s\n", dc)
 		}
 	}
-	if threshold >= 0 && bank.Verdict >= ratings.Verdict(threshold) && bank.Verdict != ratings.OK {
+	// a part marginal only through a guide (advice, not a rating) does
+	// not fail a build unless --fail-on advice asks for it
+	v := bank.Rated
+	if threshold == failAdvice {
+		v, threshold = bank.Verdict, int(ratings.Unrated)
+	}
+	if threshold >= 0 && v >= ratings.Verdict(threshold) && v != ratings.OK {
 		return exitOver, nil
 	}
 	return exitOK, nil
@@ -396,8 +402,14 @@ type auditJob struct {
 	eng  *stress.Engine
 }
 
+// failAdvice is --fail-on advice: the full verdict, guides counted, from
+// unrated up.
+const failAdvice = -2
+
 func failLevel(s string) (int, error) {
 	switch strings.ToLower(s) {
+	case "advice":
+		return failAdvice, nil
 	case "unrated":
 		return int(ratings.Unrated), nil
 	case "marginal":
@@ -407,7 +419,7 @@ func failLevel(s string) (int, error) {
 	case "never":
 		return -1, nil
 	}
-	return 0, usagef("--fail-on %s: expected unrated, marginal, fail or never", s)
+	return 0, usagef("--fail-on %s: expected advice, unrated, marginal, fail or never", s)
 }
 
 // retuneFile tunes a file's variable parts for every load and audits each
