@@ -85,6 +85,101 @@ type pdfw struct {
 	f   *gofpdf.Fpdf
 	doc *ReportDoc
 	cur fontState // the font last set through font/mono
+	// units are the advance widths, in glyph units, of the runes below
+	// unitRunes in each face, read before the first page (where setting a
+	// font writes nothing): text is measured with them without setting
+	// its font, which would write a font operator into the page each time
+	units [nFaces][]int
+	k     float64 // points per mm: a font's size in mm is its size / k
+}
+
+// The report's faces, as the unit tables index them.
+const (
+	faceRegular = iota
+	faceBold
+	faceMono
+	nFaces
+)
+
+// unitRunes bounds the unit tables: Latin, Greek (µ, Ω) and the signs
+// most text is made of; other runes are measured in their font.
+const unitRunes = 0x400
+
+var faceFonts = [nFaces][2]string{{fontSans, ""}, {fontSans, "B"}, {fontCode, ""}}
+
+// readUnits fills the unit tables; it must run before the first page.
+func (p *pdfw) readUnits() {
+	for face, ff := range faceFonts {
+		p.f.SetFont(ff[0], ff[1], 10)
+		t := make([]int, unitRunes)
+		for r := rune(0x20); r < unitRunes; r++ {
+			if r >= 0x7F && r < 0xA0 {
+				t[r] = -1 // control characters: clean escapes them
+				continue
+			}
+			t[r] = p.f.GetStringSymbolWidth(string(r))
+		}
+		p.units[face] = t
+	}
+	p.cur.ok = false
+}
+
+// textUnits is the width of s in glyph units in face, as
+// GetStringSymbolWidth gives it (a sum over the runes); false when a rune
+// is not in the table.
+func (p *pdfw) textUnits(face int, s string) (int, bool) {
+	t := p.units[face]
+	u := 0
+	for _, r := range s {
+		if r < 0x20 || r >= unitRunes || t[r] < 0 {
+			return 0, false
+		}
+		u += t[r]
+	}
+	return u, true
+}
+
+// setFace sets a face at a size (through setFont: only when it changes).
+func (p *pdfw) setFace(face int, size float64) {
+	p.setFont(faceFonts[face][0], faceFonts[face][1], size)
+}
+
+// widthIn is the width of s in face at size, as the face's GetStringWidth
+// gives it, set only when a rune is not in the unit table.
+func (p *pdfw) widthIn(face int, size float64, s string) float64 {
+	s = clean(s)
+	if u, ok := p.textUnits(face, s); ok {
+		return float64(u) * (size / p.k) / 1000
+	}
+	p.setFace(face, size)
+	return p.f.GetStringWidth(s)
+}
+
+// splitIn is split in face at size, setting the face only when the text
+// does not simply fit on one line (see oneLine).
+func (p *pdfw) splitIn(face int, size float64, s string, w float64) []string {
+	c := clean(s)
+	if c != "" && printableASCII(c) {
+		if u, ok := p.textUnits(face, c); ok {
+			fs := size / p.k
+			// split's own tests: no path breaking (a space, or it fits),
+			// and SplitText's sum against the width rounded up
+			if (strings.Contains(c, " ") || float64(u)*fs/1000 <= w) && u <= int(math.Ceil(w*1000/fs)) {
+				return []string{c}
+			}
+		}
+	}
+	p.setFace(face, size)
+	return p.split(s, w)
+}
+
+func printableASCII(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if s[i] < 0x20 || s[i] >= 0x7F {
+			return false
+		}
+	}
+	return true
 }
 
 // fontState is a font as set through font/mono; ok false when gofpdf may
@@ -212,7 +307,8 @@ func newPDF(doc *ReportDoc, alias bool) *pdfw {
 	f.SetMargins(marginL, marginTop, marginR)
 	f.SetCellMargin(0) // text sits where it is placed; tables pad themselves
 	f.SetAutoPageBreak(true, marginBot)
-	p := &pdfw{f: f, doc: doc}
+	p := &pdfw{f: f, doc: doc, k: f.GetConversionRatio()}
+	p.readUnits()
 	f.SetHeaderFuncMode(p.header, false)
 	f.SetFooterFunc(p.footer)
 	return p
@@ -358,13 +454,8 @@ func (p *pdfw) split(s string, w float64) []string {
 // rounded up; for printable ASCII, which every font has with ordinary
 // widths, GetStringSymbolWidth is that same sum.
 func (p *pdfw) oneLine(s string, w float64) bool {
-	if s == "" {
+	if s == "" || !printableASCII(s) {
 		return false
-	}
-	for i := 0; i < len(s); i++ {
-		if s[i] < 0x20 || s[i] >= 0x7F {
-			return false
-		}
 	}
 	_, size := p.f.GetFontSize()
 	return p.f.GetStringSymbolWidth(s) <= int(math.Ceil(w*1000/size))

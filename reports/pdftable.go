@@ -82,33 +82,39 @@ func (p *pdfw) table(cols []tcol, rows []trow, size float64) {
 			p.font("", detailSize)
 		}
 	}
+	// the layout measures in each text's face without setting it where
+	// it can (splitIn): the drawing sets the fonts
+	detailFace := func(r trow) (int, float64) {
+		if r.detailMono {
+			return faceMono, detailSize - 0.6
+		}
+		return faceRegular, detailSize
+	}
 	layout := func(r trow) rowLayout {
 		l := rowLayout{lines: make([][]string, len(cols)), n: 1}
 		for i, c := range r.cells {
 			if i >= len(cols) || c.pill {
 				continue
 			}
-			p.cellFont(c, size)
-			l.lines[i] = p.split(c.s, cols[i].w-2*cellPad)
+			face, fs := cellFace(c, size)
+			l.lines[i] = p.splitIn(face, fs, c.s, cols[i].w-2*cellPad)
 			l.n = max(l.n, len(l.lines[i]))
 		}
-		detailFont(r)
+		dface, dsize := detailFace(r)
 		for _, d := range r.detail {
-			l.dlines = append(l.dlines, p.split(d, tw-6)...)
+			l.dlines = append(l.dlines, p.splitIn(dface, dsize, d, tw-6)...)
 		}
 		l.h = float64(l.n)*lh + 2*cellPad
 		if len(l.dlines) > 0 {
 			l.h += float64(len(l.dlines))*dlh + cellPad
 		}
 		if len(r.grid) > 0 {
-			p.font("B", detailSize)
 			hn := 1
 			for _, c := range r.gridCols {
-				hn = max(hn, len(p.split(c.title, c.w-1)))
+				hn = max(hn, len(p.splitIn(faceBold, detailSize, c.title, c.w-1)))
 			}
 			l.ghead = float64(hn)*dlh + 0.6
 			l.h += l.ghead
-			p.font("", detailSize)
 			for _, g := range r.grid {
 				var cells [][]string
 				n := 1
@@ -116,13 +122,13 @@ func (p *pdfw) table(cols []tcol, rows []trow, size float64) {
 					if i >= len(r.gridCols) {
 						break
 					}
-					ls := p.split(c, r.gridCols[i].w-1)
+					ls := p.splitIn(faceRegular, detailSize, c, r.gridCols[i].w-1)
 					cells = append(cells, ls)
 					n = max(n, len(ls))
 				}
 				var note []string
 				if g.note != "" {
-					note = p.split(g.note, tableW(r.gridCols)-6)
+					note = p.splitIn(faceRegular, detailSize, g.note, tableW(r.gridCols)-6)
 				}
 				h := float64(n+len(note))*dlh + 0.5
 				l.glines = append(l.glines, cells)
@@ -272,6 +278,17 @@ func (p *pdfw) table(cols []tcol, rows []trow, size float64) {
 		f.SetY(y + lay.h)
 	}
 	f.Ln(2)
+}
+
+// cellFace is the face and size cellFont sets for c.
+func cellFace(c tcell, size float64) (int, float64) {
+	switch {
+	case c.mono:
+		return faceMono, size - 0.8
+	case c.bold:
+		return faceBold, size
+	}
+	return faceRegular, size
 }
 
 func (p *pdfw) cellFont(c tcell, size float64) {

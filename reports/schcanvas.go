@@ -99,12 +99,10 @@ func (c *pdfCanvas) text(l slabel) {
 // measure is the text width function the layout uses: the report's own
 // fonts, so labels are placed exactly where the PDF prints them.
 func (p *pdfw) measure(s string, size float64, bold bool) float64 {
-	style := ""
 	if bold {
-		style = "B"
+		return p.widthIn(faceBold, size, s) // callers set their own font before writing
 	}
-	p.font(style, size) // callers set their own font before writing
-	return p.width(s)
+	return p.widthIn(faceRegular, size, s)
 }
 
 // schematic draws a section's circuit with its stresses across the body,

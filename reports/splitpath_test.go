@@ -58,3 +58,33 @@ func TestOneLineAsSplitText(t *testing.T) {
 		}
 	}
 }
+
+// TestMeasureWithoutFont: measuring and wrapping from the unit tables,
+// without setting the font, give what gofpdf's GetStringWidth and the
+// report's split give with the font set (the reference), in each face.
+func TestMeasureWithoutFont(t *testing.T) {
+	p := newPDF(&ReportDoc{Bank: &stress.Bank{}}, true)
+	p.f.AddPage()
+	texts := []string{"C7a", "peak voltage 322 V", "12.5-j180 Ω", "1.2 µH", "testdata/station/lpf-20m.net", "a  b", "−3 dB ∠45°", "tab\there", ""}
+	for face := 0; face < nFaces; face++ {
+		for _, size := range []float64{5.5, 6.8, 8} {
+			for _, s := range texts {
+				p.setFace(face, size)
+				want := p.f.GetStringWidth(clean(s))
+				p.setFace((face+1)%nFaces, 7) // another font current
+				if got := p.widthIn(face, size, s); got != want {
+					t.Errorf("face %d %.1f: width of %q %g, GetStringWidth %g", face, size, s, got, want)
+				}
+				for _, k := range []float64{0.3, 0.7, 0.999, 1, 1.5} {
+					w := want * k
+					p.setFace(face, size)
+					ref := p.split(s, w)
+					p.setFace((face+1)%nFaces, 7)
+					if got := p.splitIn(face, size, s, w); strings.Join(got, "|") != strings.Join(ref, "|") || len(got) != len(ref) {
+						t.Errorf("face %d %.1f: %q at %.3f mm split as %q, with the font set %q", face, size, s, w, got, ref)
+					}
+				}
+			}
+		}
+	}
+}
