@@ -1,6 +1,11 @@
 package ratings
 
-import "math"
+import (
+	"fmt"
+	"math"
+
+	"rfstress/circuits"
+)
 
 // Duty is how a mode keys the transmitter, for heating: continuous (both
 // zero), a single on-period On (Period 0, e.g. a tune-up carrier held for
@@ -94,4 +99,39 @@ func (p *Part) AreaFor(allowed, pavg, t float64, d Duty) float64 {
 		}
 	}
 	return hi
+}
+
+// SmallBodyArea is the cooling surface assumed for a capacitor whose
+// dissipation is not rated: a disc 10 mm across and 4 mm thick,
+// 2·π·(5 mm)² + π·10 mm·4 mm ≈ 2.8 cm² (a round size of our own).
+const SmallBodyArea = 2*math.Pi*5e-3*5e-3 + math.Pi*10e-3*4e-3
+
+// SmallBodyRise is the still-air rise of that body at dissipation pavg (W).
+func SmallBodyRise(pavg float64) float64 {
+	return math.Pow(pavg*1e3/(SmallBodyArea*1e4), TempExponent)
+}
+
+// SmallBodyWarnRise is the rise of that body above which an unrated
+// capacitor's dissipation is worth a warning.
+const SmallBodyWarnRise = 40.0
+
+// UnratedHeat is the finding for a capacitor that has no pmax= yet
+// dissipates pavg (W, at average power) enough that a small body would
+// run hot: by the still-air rule (P[mW]/A[cm²])^0.833 a 10 mm disc rises
+// more than SmallBodyWarnRise (about 0.24 W). ok false when there is
+// nothing to say. The rating of a capacitor is usually its current; this
+// asks for the dissipation when the dielectric makes it large (a class
+// II disc, a lossy part at a high current). An air or vacuum capacitor
+// is no small body (its loss spreads over plates and frame): left out.
+func (p *Part) UnratedHeat(pavg float64) (Finding, bool) {
+	if p.Kind != circuits.Capacitor || p.pmax != nil || !(pavg > 0) || p.Dielectric == "air" || p.Dielectric == "vacuum" {
+		return Finding{}, false
+	}
+	rise := SmallBodyRise(pavg)
+	if rise <= SmallBodyWarnRise {
+		return Finding{}, false
+	}
+	return Finding{Part: p.Name, Pos: p.Pos, Severity: "warning",
+		Text: fmt.Sprintf("dissipates %s at average power and has no dissipation rating (pmax=): by the still-air rule (P[mW]/A[cm²])^0.833 a 10 mm disc would rise about %.0f K; give pmax= from its data, or use a lower-loss dielectric",
+			circuits.FormatSI(pavg, "W"), rise)}, true
 }

@@ -1,7 +1,9 @@
 package ratings
 
 import (
+	"fmt"
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -121,5 +123,39 @@ func TestHeatingRisesWithDissipation(t *testing.T) {
 				prev = r
 			}
 		}
+	}
+}
+
+// A capacitor without pmax= that dissipates enough to heat a small body
+// gets a warning with the rise of a 10 mm disc 4 mm thick (surface
+// 2·π·5² + π·10·4 = 282.7 mm², worked here) by the still-air rule
+// (P[mW]/A[cm²])^0.833 (common practice): 0.706 W gives
+// (706/2.827)^0.833 ≈ 99.5 K. At 0.2 W the disc rises 35 K, under the
+// 40 K that warns; a pmax= rating, or an air variable, says nothing.
+func TestUnratedCapacitorHeat(t *testing.T) {
+	area := 2*math.Pi*5*5 + math.Pi*10*4 // mm²
+	if math.Abs(SmallBodyArea/(area*1e-6)-1) > 0.01 {
+		t.Fatalf("body surface %.4g m², by hand %.4g m²", SmallBodyArea, area*1e-6)
+	}
+	src := "port in a z=50\nport out b z=50\ncapacitor C1 a gnd 470p dielectric=x7r vpk=1k irms=1\n" +
+		"capacitor C2 a gnd 470p dielectric=x7r vpk=1k irms=1 pmax=1\n" +
+		"capacitor C3 a gnd 100p dielectric=air vpk=3k irms=5\nresistor R b gnd 50\ninductor L a b 1u q=100\n"
+	set := mustPrepare(t, src, nil)
+	f, ok := set.Parts["C1"].UnratedHeat(0.706)
+	want := math.Pow(706/(area/100), 0.833)
+	if got := SmallBodyRise(0.706); math.Abs(got/want-1) > 1e-9 {
+		t.Errorf("0.706 W: rise %.6g K, by hand %.6g K", got, want)
+	}
+	if !ok || !strings.Contains(f.Text, fmt.Sprintf("about %.0f K", SmallBodyRise(0.706))) || !strings.Contains(f.Text, "706 mW") {
+		t.Errorf("0.706 W: %v %q, want a warning with about %.1f K", ok, f.Text, want)
+	}
+	if _, ok := set.Parts["C1"].UnratedHeat(0.2); ok {
+		t.Errorf("0.2 W (%.0f K on the disc) warns", math.Pow(200/(area/100), 0.833))
+	}
+	if _, ok := set.Parts["C2"].UnratedHeat(0.706); ok {
+		t.Error("a part with pmax= is judged on it, not warned about")
+	}
+	if _, ok := set.Parts["C3"].UnratedHeat(5); ok {
+		t.Error("an air variable is no small body")
 	}
 }

@@ -173,6 +173,11 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 			p.SafeW, p.Limiting = st.SafeW, q
 		}
 	}
+	if rp != nil && a.has[qPdiss] {
+		if fnd, ok := rp.UnratedHeat(a.val[qPdiss]); ok {
+			p.Findings = append(append([]ratings.Finding(nil), p.Findings...), fnd)
+		}
+	}
 	p.Binding = p.Limiting
 	if p.Binding == "" {
 		p.Binding = bindingRating(p)
