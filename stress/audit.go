@@ -771,7 +771,7 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 			}
 		}
 	}
-	w.dcq = [nQ]float64{} // lines set none: they carry no DC share
+	w.dcq = [nQ]float64{} // each caller sets the DC share of its own case
 }
 
 // circleCases finds each part's worst loads on the SWR circle exactly,

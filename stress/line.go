@@ -57,13 +57,25 @@ func (e *Engine) lineQ(w *workspace, l *circuits.LineSpec, i, cls int, c complex
 	pd *= scale * scale
 	avg := e.Cond.AvgRatio
 	pm := 2 * l.Alpha(f) * math.Max(l.Z0*im*im, vm*vm/l.Z0)
-	q[qVpk] = math.Sqrt2 * (vm + k*w.pkV[cls][i])
-	q[qVrms] = math.Sqrt(vm*vm + k*k*w.sqV[cls][i])
-	q[qIrms] = math.Sqrt((im*im + k*k*w.sqI[cls][i]) * avg)
+	// DC passes a line unchanged (an ideal line at f = 0): its voltage
+	// between the conductors adds to the RF crest everywhere along it, its
+	// current to the RMS current (a remote tuner fed over the coax; a pi
+	// network's missing blocking capacitor)
+	vdc, idc := math.Abs(w.dcV[i]), math.Abs(w.dcI[i])
+	q[qVpk] = vdc + math.Sqrt2*(vm+k*w.pkV[cls][i])
+	q[qVrms] = math.Sqrt(vdc*vdc + vm*vm + k*k*w.sqV[cls][i])
+	q[qIrms] = math.Sqrt(idc*idc + (im*im+k*k*w.sqI[cls][i])*avg)
 	q[qPdiss] = (pd + k*k*w.sumP[cls][i]) * avg
 	q[qPm] = (pm + k*k*w.pmH[cls][i]) * avg
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss], has[qPm] = true, true, true, true, true
 	return
+}
+
+// lineDC sets the DC share of line i's stresses for keep (safe power
+// scales only the RF share).
+func (e *Engine) lineDC(w *workspace, i int) {
+	vdc, idc := math.Abs(w.dcV[i]), math.Abs(w.dcI[i])
+	w.dcq[qVpk], w.dcq[qVrms], w.dcq[qIrms] = vdc, vdc, idc
 }
 
 // evalLine keeps a line's quantities at one case (weight circle (c, r);
@@ -73,6 +85,7 @@ func (e *Engine) evalLine(w *workspace, l *circuits.LineSpec, i, ci int, kind Ca
 	for qi := range has {
 		has[qi] = has[qi] && mask[qi]
 	}
+	e.lineDC(w, i)
 	e.keep(w, i, ci, kind, &q, &has)
 }
 
@@ -92,6 +105,7 @@ func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca
 			h[qi] = has[qi]
 		}
 		ci := e.circleIndex(w, first, grp.alpha, disc)
+		e.lineDC(w, i)
 		e.keep(w, i, ci, Circle, &q, &h)
 		if ci >= e.NumCases() && w.acc[i].uses(ci) {
 			e.record(w, first, f, grp.alpha)
