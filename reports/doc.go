@@ -17,6 +17,9 @@ type ReportDoc struct {
 	// Filters[i], waiting until it is ready: the caller may still be
 	// gathering later sections' data while the report draws earlier ones.
 	FilterAt func(i int) *FilterPlot
+	// Start, when set, is the document begun ahead (StartPDF) the
+	// report is drawn on.
+	Start    *PDFStart
 	CautionV float64 // node voltage above which the caution is stressed
 	Subject  string  // page-header subject when not an audit (e.g. a comparison)
 }

@@ -7,6 +7,7 @@ import (
 	"io"
 	"math"
 	"strconv"
+	"sync/atomic"
 	"strings"
 	"time"
 	"unicode/utf8"
@@ -107,21 +108,22 @@ const unitRunes = 0x400
 
 var faceFonts = [nFaces][2]string{{fontSans, ""}, {fontSans, "B"}, {fontCode, ""}}
 
-// readUnits fills the unit tables; it must run before the first page.
-func (p *pdfw) readUnits() {
+// readUnits reads the unit tables of a document's faces; it must run
+// before the first page.
+func readUnits(f *gofpdf.Fpdf) (units [nFaces][]int) {
 	for face, ff := range faceFonts {
-		p.f.SetFont(ff[0], ff[1], 10)
+		f.SetFont(ff[0], ff[1], 10)
 		t := make([]int, unitRunes)
 		for r := rune(0x20); r < unitRunes; r++ {
 			if r >= 0x7F && r < 0xA0 {
 				t[r] = -1 // control characters: clean escapes them
 				continue
 			}
-			t[r] = p.f.GetStringSymbolWidth(string(r))
+			t[r] = f.GetStringSymbolWidth(string(r))
 		}
-		p.units[face] = t
+		units[face] = t
 	}
-	p.cur.ok = false
+	return units
 }
 
 // textUnits is the width of s in glyph units in face, as
@@ -210,7 +212,15 @@ func WritePDF(w io.Writer, doc *ReportDoc) error {
 // compressed by deflatePages instead of by gofpdf, and the page total
 // filled in there too (same bytes, less work).
 func renderPDF(doc *ReportDoc, ownDeflate bool) ([]byte, error) {
-	p := newPDF(doc, !ownDeflate)
+	var p *pdfw
+	if ownDeflate { // the start has no page-total alias: deflatePages fills it in
+		if fd := doc.Start.take(); fd != nil {
+			p = setupPDF(fd, doc)
+		}
+	}
+	if p == nil {
+		p = newPDF(doc, !ownDeflate)
+	}
 	f := p.f
 	if ownDeflate {
 		f.SetCompression(false)
@@ -279,6 +289,17 @@ func (g *grab) Write(p []byte) (int, error) {
 
 // newPDF sets up an empty report document: fonts, dates, page furniture.
 func newPDF(doc *ReportDoc, alias bool) *pdfw {
+	return setupPDF(newFontDoc(alias), doc)
+}
+
+// fontDoc is an empty gofpdf document with the report's fonts added and
+// their unit tables read: the part of a report that needs no data.
+type fontDoc struct {
+	f     *gofpdf.Fpdf
+	units [nFaces][]int
+}
+
+func newFontDoc(alias bool) *fontDoc {
 	f := gofpdf.New("P", "mm", "A4", "")
 	// fonts before AliasNbPages: gofpdf then keeps the digits in every
 	// font subset, which the page total is written with at the end
@@ -292,6 +313,41 @@ func newPDF(doc *ReportDoc, alias bool) *pdfw {
 	if alias {
 		f.AliasNbPages(pageTotal) // else deflatePages fills it in
 	}
+	return &fontDoc{f: f, units: readUnits(f)}
+}
+
+// PDFStart is a report document begun ahead of its data: gofpdf reads
+// the embedded fonts (a few milliseconds of the report) in the background
+// while the caller is still auditing. A start serves one report.
+type PDFStart struct {
+	done chan struct{}
+	fd   *fontDoc
+	used atomic.Bool
+}
+
+// StartPDF begins a report document in the background; give it to the
+// report as ReportDoc.Start.
+func StartPDF() *PDFStart {
+	s := &PDFStart{done: make(chan struct{})}
+	go func() {
+		defer close(s.done)
+		s.fd = newFontDoc(false)
+	}()
+	return s
+}
+
+// take is the document begun ahead, once; nil after.
+func (s *PDFStart) take() *fontDoc {
+	if s == nil || s.used.Swap(true) {
+		return nil
+	}
+	<-s.done
+	return s.fd
+}
+
+// setupPDF sets a document's dates, metadata and page furniture.
+func setupPDF(fd *fontDoc, doc *ReportDoc) *pdfw {
+	f := fd.f
 	date := doc.Date.UTC()
 	if doc.Date.IsZero() {
 		date = time.Unix(0, 0).UTC() // never let gofpdf fall back to the clock
@@ -307,8 +363,7 @@ func newPDF(doc *ReportDoc, alias bool) *pdfw {
 	f.SetMargins(marginL, marginTop, marginR)
 	f.SetCellMargin(0) // text sits where it is placed; tables pad themselves
 	f.SetAutoPageBreak(true, marginBot)
-	p := &pdfw{f: f, doc: doc, k: f.GetConversionRatio()}
-	p.readUnits()
+	p := &pdfw{f: f, doc: doc, k: f.GetConversionRatio(), units: fd.units}
 	f.SetHeaderFuncMode(p.header, false)
 	f.SetFooterFunc(p.footer)
 	return p

@@ -182,6 +182,10 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		return exitUsage, err
 	}
 
+	var start *reports.PDFStart
+	if *reportPath != "" {
+		start = reports.StartPDF() // the report's fonts are read meanwhile
+	}
 	// each file is audited on its own: with no progress bar to show (and
 	// no trials or retuning, which have workers of their own) the files
 	// run on parallel workers, each result kept in its file's place
@@ -264,6 +268,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 			fn = func(w io.Writer) error { return reports.WriteAuditCSV(w, bank) }
 		case "--report":
 			doc := startReportDoc(bank, engines, *caution, date, poolSize(tol.workers, len(engines)))
+			doc.Start = start
 			fn = func(w io.Writer) error { return writePDF(w, doc) }
 		case "--schematic":
 			fn = func(w io.Writer) error { return reports.WriteSchematicSVG(w, bank) }
