@@ -242,6 +242,33 @@ func gammaOf(z complex128, r0 float64) (complex128, bool) {
 // loadChart draws an impedance chart (the Smith chart: circles of
 // constant resistance and arcs of constant reactance) with the loads
 // audited at the antenna port, and the case that bound the limiting part.
+// gammaArc draws the arc of the circle round centre (Γ plane, radius
+// rad mm on the page) that gamma traces for resistance 0 to 999 on a
+// chart mapped by at: as an arc, a few Bézier segments where a polyline
+// took dozens of points; it passes through resistance 1.
+func (p *pdfw) gammaArc(at func(complex128) (float64, float64), centre complex128, rad float64, gamma func(r float64) complex128) {
+	cx, cy := at(centre)
+	deg := func(r float64) float64 {
+		x, y := at(gamma(r))
+		return math.Atan2(cy-y, x-cx) * 180 / math.Pi // counter-clockwise, as gofpdf's Arc
+	}
+	norm := func(d float64) float64 {
+		for d <= -180 {
+			d += 360
+		}
+		for d > 180 {
+			d -= 360
+		}
+		return d
+	}
+	a0 := deg(0)
+	d1, dm := norm(deg(999)-a0), norm(deg(1)-a0)
+	if dm*d1 < 0 || math.Abs(dm) > math.Abs(d1) {
+		d1 -= math.Copysign(360, d1) // the other way round
+	}
+	p.f.Arc(cx, cy, rad, rad, 0, a0, a0+d1, "D")
+}
+
 func (p *pdfw) loadChart(s *stress.Section, fp *FilterPlot, top float64) {
 	f := p.f
 	r0 := fp.R0
@@ -260,19 +287,11 @@ func (p *pdfw) loadChart(s *stress.Section, fp *FilterPlot, top float64) {
 	}
 	for _, x := range []float64{0.2, 0.5, 1, 2, 5} {
 		for _, sgn := range []float64{1, -1} {
-			// one path through the points, not a line per step
-			for k := 0; k <= 60; k++ {
-				t := float64(k) / 60 * 0.999
-				r := t / (1 - t)
-				g := (complex(r, sgn*x) - 1) / (complex(r, sgn*x) + 1)
-				px, py := at(g)
-				if k == 0 {
-					f.MoveTo(px, py)
-				} else {
-					f.LineTo(px, py)
-				}
-			}
-			f.DrawPath("D")
+			// resistance 0 to 999 at reactance ±x: an arc of the circle
+			// round 1 + j/x of radius 1/x in the Γ plane, drawn as one
+			p.gammaArc(at, complex(1, sgn/x), chartR/x, func(r float64) complex128 {
+				return (complex(r, sgn*x) - 1) / (complex(r, sgn*x) + 1)
+			})
 		}
 	}
 	f.Line(cx-chartR, cy, cx+chartR, cy)

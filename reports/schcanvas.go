@@ -59,9 +59,16 @@ func (c *pdfCanvas) poly(pts []spt, closed, filled bool) {
 		c.p.f.Polygon(ps, style)
 		return
 	}
-	for i := 1; i < len(ps); i++ {
-		c.p.f.Line(ps[i-1].X, ps[i-1].Y, ps[i].X, ps[i].Y)
+	if len(ps) < 2 {
+		return
 	}
+	// one path, as the SVG's polyline: joined corners, and a dash runs on
+	// round them
+	c.p.f.MoveTo(ps[0].X, ps[0].Y)
+	for _, q := range ps[1:] {
+		c.p.f.LineTo(q.X, q.Y)
+	}
+	c.p.f.DrawPath("D")
 }
 
 func (c *pdfCanvas) circle(a spt, r float64, filled bool) {
