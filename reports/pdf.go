@@ -7,8 +7,8 @@ import (
 	"io"
 	"math"
 	"strconv"
-	"sync/atomic"
 	"strings"
+	"sync/atomic"
 	"time"
 	"unicode/utf8"
 
