@@ -675,16 +675,34 @@ func (p *pdfw) fit(s string, w float64) string {
 
 // pill draws a verdict tag: the word in white on the verdict's colour.
 func (p *pdfw) pill(x, y, h float64, v ratings.Verdict) float64 {
-	f := p.f
 	word := strings.ToUpper(v.String())
 	p.font("B", h*2.1)
 	w := p.width(word) + h*0.9
 	p.fill(verdictColor(v))
-	f.RoundedRect(x, y, w, h, h*0.3, "1234", "F")
+	p.roundedFill(x, y, w, h, h*0.3)
 	p.text(colWhite)
 	p.cellAt(x, y, w, h, word, "C")
 	p.text(colInk)
 	return w
+}
+
+// roundedFill fills a rectangle with rounded corners of radius r in the
+// fill colour: gofpdf's RoundedRect draws the same outline but opens a
+// graphics state (q) it never closes, one more level per tag on a page.
+func (p *pdfw) roundedFill(x, y, w, h, r float64) {
+	f := p.f
+	c := r * (4.0 / 3.0) * (math.Sqrt2 - 1.0) // a quarter circle's Bézier handle
+	f.MoveTo(x+r, y)
+	f.LineTo(x+w-r, y)
+	f.CurveBezierCubicTo(x+w-r+c, y, x+w, y+r-c, x+w, y+r)
+	f.LineTo(x+w, y+h-r)
+	f.CurveBezierCubicTo(x+w, y+h-r+c, x+w-r+c, y+h, x+w-r, y+h)
+	f.LineTo(x+r, y+h)
+	f.CurveBezierCubicTo(x+r-c, y+h, x, y+h-r+c, x, y+h-r)
+	f.LineTo(x, y+r)
+	f.CurveBezierCubicTo(x, y+r-c, x+r-c, y, x+r, y)
+	f.ClosePath()
+	f.DrawPath("F")
 }
 
 // pillFit draws a verdict tag no wider than maxW, shrinking its text when
@@ -702,9 +720,8 @@ func (p *pdfw) pillFit(x, y, h float64, v ratings.Verdict, maxW float64) float64
 	}
 	p.font("B", size)
 	w := math.Min(p.width(word)+h*0.9, maxW)
-	f := p.f
 	p.fill(verdictColor(v))
-	f.RoundedRect(x, y, w, h, h*0.3, "1234", "F")
+	p.roundedFill(x, y, w, h, h*0.3)
 	p.text(colWhite)
 	p.cellAt(x, y, w, h, word, "C")
 	p.text(colInk)
