@@ -271,7 +271,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 			doc := startReportDoc(bank, engines, *caution, date, poolSize(tol.workers, len(engines)))
 			doc.Start = start
 			fn = func(w io.Writer) error {
-				defer debug.SetGCPercent(debug.SetGCPercent(reportGCPercent))
+				defer reportGC()()
 				return writePDF(w, doc)
 			}
 		case "--schematic":
@@ -331,6 +331,16 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 // of the run's wall time; at 400 it runs two or three times and the heap
 // peaks a few tens of MB higher. Restored when the report is written.
 const reportGCPercent = 400
+
+// reportGC raises GOGC to reportGCPercent (never lowers it, nor turns a
+// GOGC=off collector on) and returns what restores it.
+func reportGC() (restore func()) {
+	old := debug.SetGCPercent(reportGCPercent)
+	if old < 0 || old > reportGCPercent {
+		debug.SetGCPercent(old) // the user's GOGC already collects less
+	}
+	return func() { debug.SetGCPercent(old) }
+}
 
 // cautionRange bounds --caution-volts: a NaN would silence the caution.
 var cautionRange = circuits.Range{Lo: 0, Hi: 100e6, Unit: "V"}

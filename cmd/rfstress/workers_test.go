@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"testing"
 )
 
@@ -46,6 +47,28 @@ func TestBankWorkersSameBytes(t *testing.T) {
 		}
 		if !bytes.Equal(tx, t1) {
 			t.Errorf("--workers %s: the text differs from --workers 1", w)
+		}
+	}
+}
+
+// TestReportGCRestores: the collector setting the report raises is put
+// back afterwards, and a GOGC that already collects less (or not at all)
+// is left alone.
+func TestReportGCRestores(t *testing.T) {
+	defer debug.SetGCPercent(debug.SetGCPercent(100))
+	for _, start := range []int{100, 800, -1} {
+		debug.SetGCPercent(start)
+		restore := reportGC()
+		during := debug.SetGCPercent(-1)
+		debug.SetGCPercent(during)
+		restore()
+		after := debug.SetGCPercent(start)
+		want := reportGCPercent
+		if start < 0 || start > reportGCPercent {
+			want = start
+		}
+		if during != want || after != start {
+			t.Errorf("GOGC %d: %d while the report is drawn (want %d), %d after (want %d)", start, during, want, after, start)
 		}
 	}
 }
