@@ -28,6 +28,9 @@ func (e *Engine) BandUse(n int) (*BandUse, error) {
 		fs, off = append(fs, f), append(off, true)
 	}
 	u := &BandUse{F: fs, OffBand: off, Use: make([][]float64, len(e.C.Elements))}
+	// one workspace serves every frequency: the sub-engines differ only in
+	// their carrier, and run resets what it accumulates
+	var w *workspace
 	for k, f := range fs {
 		one := c
 		one.BandLo, one.BandHi, one.Points, one.CarrierAlso = f, f, 1, nil
@@ -38,8 +41,10 @@ func (e *Engine) BandUse(n int) (*BandUse, error) {
 		// the use Audit's verdicts would give (PartResult.Util), read from
 		// the accumulators: no verdict texts, findings or sections for a
 		// plot that shows one number per part
-		w := sub.newWorkspace(e.C)
-		w.record = true
+		if w == nil {
+			w = sub.newWorkspace(e.C)
+			w.record = true
+		}
 		if _, err := sub.run(w); err != nil {
 			return nil, err
 		}

@@ -155,7 +155,7 @@ func swrWords(v float64) string {
 }
 
 // txCircle records the worst the transmitter sees over the SWR circle:
-// every sampled phase, then the continuous circle. Γ at the transmitter is
+// the continuous circle's crest and the sampled phases beside it. Γ at the transmitter is
 // a bilinear (Möbius) function of the weight α, which runs on a circle,
 // so |Γ| has one crest on it, found in closed form (txCrest), or else as
 // the best of 72 points along the α circle refined by golden-section
@@ -164,13 +164,12 @@ func (e *Engine) txCircle(w *workspace, first int) {
 	s := w.carr
 	ca, ra, ok := w.ca, w.ra, w.caOK
 	const n = 72
-	if !ok || ra == 0 || e.nPhase <= n {
+	if !ok || ra == 0 {
+		// no α circle to follow: every sampled phase
 		for j := 0; j < e.nPhase; j++ {
 			e.txCase(w, first+j, Circle, s.Alpha(e.circleLoad(w.zc, j)))
 		}
-		if !ok || ra == 0 {
-			return
-		}
+		return
 	}
 	a, ok := e.txCrest(w, ca, ra)
 	if !ok {
@@ -194,8 +193,8 @@ func (e *Engine) txCircle(w *workspace, first int) {
 	v := e.txAt(s, a, scale)
 	j := e.phaseOfAlpha(w, a)
 	v.Case = first + j
-	if m := e.nPhase; m > n {
-		// a fine circle: |Γ| has one crest, so no sampled phase beats the
+	if m := e.nPhase; m > 0 {
+		// |Γ| has one crest on the circle, so no sampled phase beats the
 		// continuous worst; the phases beside it are recorded (they can
 		// only tie) instead of a scan of every phase, which would cost
 		// what the rest of the audit does not: per phase, not per crest
