@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"io"
@@ -259,6 +260,27 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	}
 	bank := stress.NewBank(sections)
 
+	// while a report is drawn the text is formatted beside it (it only
+	// reads the bank), and printed after the report as before
+	text := func(w io.Writer) error { return reports.WriteAuditTextWidth(w, bank, *caution, textWidth(stdout)) }
+	toStdout := false
+	for _, t := range targets {
+		toStdout = toStdout || t.path == "-"
+	}
+	if *reportPath != "" && !toStdout {
+		var buf bytes.Buffer
+		done := make(chan error, 1)
+		format := text
+		go func() { done <- format(&buf) }()
+		text = func(w io.Writer) error {
+			if err := <-done; err != nil {
+				return err
+			}
+			_, err := buf.WriteTo(w)
+			return err
+		}
+	}
+
 	wroteStdout := false
 	for _, t := range targets {
 		var fn func(io.Writer) error
@@ -283,7 +305,7 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 		wroteStdout = wroteStdout || t.path == "-"
 	}
 	if !wroteStdout {
-		if err := reports.WriteAuditTextWidth(stdout, bank, *caution, textWidth(stdout)); err != nil {
+		if err := text(stdout); err != nil {
 			return exitUsage, err
 		}
 		for _, s := range bank.Sections {
