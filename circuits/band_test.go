@@ -308,7 +308,7 @@ func (freqKind) Stamp(e *Element, s *System, f float64) {
 	s.Admit(e.A, -1, y)
 	s.Admit(e.B, -1, y)
 }
-func (freqKind) State(e *Element, x []complex128, f float64, st *PartState) { *st = PartState{} }
+func (freqKind) State(e *Element, s *System, x []complex128, f float64, st *PartState) { *st = PartState{} }
 func (freqKind) LossR(e *Element, f float64) float64                        { return 0 }
 
 func TestBandWidensForNewPositions(t *testing.T) {

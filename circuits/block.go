@@ -54,7 +54,7 @@ func (blockModel) Stamp(e *Element, s *System, f float64) {
 	}
 }
 
-func (blockModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (blockModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.Nodes[0]), I: x[e.Branch], V2: nodeV(x, e.Nodes[1]), I2: x[e.Branch+1]}
 }
 

@@ -62,16 +62,16 @@ func (m capacitorModel) Stamp(e *Element, s *System, f float64) {
 	if f == 0 {
 		return // open at DC
 	}
-	s.Admit(e.A, e.B, recip(m.Impedance(e, f)))
+	s.Admit(e.A, e.B, recip(m.impedance(e, f, s.LossR(e, f))))
 }
 
-func (m capacitorModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (m capacitorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	if f == 0 {
 		*st = PartState{V: v}
 		return
 	}
-	*st = PartState{V: v, I: v * recip(m.Impedance(e, f))}
+	*st = PartState{V: v, I: v * recip(m.impedance(e, f, s.LossR(e, f)))}
 }
 
 func (capacitorModel) LossR(e *Element, f float64) float64 {
@@ -89,12 +89,17 @@ func (capacitorModel) LossR(e *Element, f float64) float64 {
 }
 
 func (m capacitorModel) Impedance(e *Element, f float64) complex128 {
+	return m.impedance(e, f, m.LossR(e, f))
+}
+
+// impedance is ESR + ESL + C in series with the loss resistance r at f
+// (the measured impedance for a measured part).
+func (capacitorModel) impedance(e *Element, f, r float64) complex128 {
 	if z, ok := e.measuredZ(f); ok {
 		return z
 	}
-	// ESR + ESL + C in series
 	w := 2 * math.Pi * f
-	return complex(m.LossR(e, f), w*e.esl-1/(w*e.Value))
+	return complex(r, w*e.esl-1/(w*e.Value))
 }
 
 // capacitorAttrs: loss and rating attributes; ratings are read by the

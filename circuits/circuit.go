@@ -16,6 +16,7 @@ type Element struct {
 	Nodes  []int   // every terminal's node index, in statement order
 	Value  float64 // F, H or Ω
 	Branch int     // first branch-current unknown (−1 when it has none)
+	Index  int     // position in Circuit.Elements
 	// Rdc is the series resistance at DC of kinds that conduct DC
 	// through a winding (an inductor's rdc=); 0 when not given, and the
 	// stress layer may supply the winding's wire resistance instead.
@@ -107,6 +108,7 @@ func Build(nl *Netlist) (*Circuit, error) {
 			next += nb
 		}
 		byName[comp.Name] = len(c.Elements)
+		e.Index = len(c.Elements)
 		c.Elements = append(c.Elements, e)
 	}
 	if nl.Out.HasCM && c.OutB >= 0 {
@@ -286,7 +288,7 @@ func (c *Circuit) stamp(s *System, f float64, load *Load) {
 		// the mutual term carries ωM/Q as the self term carries ωL/Q
 		// (see mutualR); a transformer's load ampere-turns then cancel
 		// in its loss as they do in its core
-		zm := complex(c.mutualR(mu, f), w*mu.k*math.Sqrt(c.Elements[mu.i].Value*c.Elements[mu.j].Value))
+		zm := complex(c.mutualR(s, mu, f), w*mu.k*math.Sqrt(c.Elements[mu.i].Value*c.Elements[mu.j].Value))
 		bi, bj := c.Elements[mu.i].Branch, c.Elements[mu.j].Branch
 		s.Add(bi, bj, -zm)
 		s.Add(bj, bi, -zm)
@@ -336,6 +338,7 @@ type Factorization struct {
 	mat  []complex128
 	y    []complex128 // permuted right-hand side
 	sys  System
+	loss []float64 // each element's LossR at F (System.LossR)
 }
 
 // Factor assembles and factorises the network at f with the given load
@@ -393,8 +396,16 @@ func (fz *Factorization) Refactor(f float64) error {
 	// the System lives in the Factorization: handed to the kinds' Stamp
 	// methods it would otherwise be moved to the heap on every call
 	s := &fz.sys
+	if len(fz.loss) != len(fz.C.Elements) {
+		fz.loss = make([]float64, len(fz.C.Elements))
+	}
+	for i := range fz.C.Elements {
+		e := &fz.C.Elements[i]
+		fz.loss[i] = e.Model.LossR(e, f)
+	}
 	if fz.band != nil {
 		*s = System{N: fz.n, perm: fz.perm, band: fz.band}
+		s.loss, s.lossF, s.hasLoss = fz.loss, f, true
 		fz.C.stamp(s, f, fz.Load)
 		if s.outside {
 			fz.plan(f)
@@ -402,7 +413,7 @@ func (fz *Factorization) Refactor(f float64) error {
 		}
 		err = fz.band.Factor()
 	} else {
-		*s = System{N: fz.n, M: fz.mat}
+		*s = System{N: fz.n, M: fz.mat, loss: fz.loss, lossF: f, hasLoss: true}
 		fz.C.stamp(s, f, fz.Load)
 		err = fz.lu.Factor(fz.mat)
 	}
@@ -510,25 +521,25 @@ func nodeV(x []complex128, i int) complex128 {
 
 // PartStates reads element states out of a solution vector x at f.
 func (c *Circuit) PartStates(x []complex128, f float64, out []PartState) {
-	c.partStates(x, f, out, true)
+	c.partStates(nil, x, f, out, true)
 }
 
 // partStates is PartStates, with the dissipation left out when withLoss is
 // false (Split keeps the loss resistance per element instead).
-func (c *Circuit) partStates(x []complex128, f float64, out []PartState, withLoss bool) {
+func (c *Circuit) partStates(s *System, x []complex128, f float64, out []PartState, withLoss bool) {
 	for i := range c.Elements {
 		e := &c.Elements[i]
 		// the state is written in place: returned by value it was copied
 		// twice per part per solve, a fifth of a small network's fill
 		st := &out[i]
-		e.Model.State(e, x, f, st)
+		e.Model.State(e, s, x, f, st)
 		if !withLoss {
 			continue
 		}
 		if d, ok := e.Model.(Dissipator); ok {
 			st.Ploss = d.Dissipation(e, st, f)
 		} else {
-			r := e.Model.LossR(e, f)
+			r := s.LossR(e, f)
 			st.Ploss = r * (real(st.I)*real(st.I) + imag(st.I)*imag(st.I))
 		}
 	}
@@ -546,12 +557,12 @@ func (c *Circuit) partStates(x []complex128, f float64, out []PartState, withLos
 	for _, mu := range c.mutuals {
 		for _, i := range [2]int{mu.i, mu.j} {
 			if out[i].Vloss == 0 {
-				out[i].Vloss = complex(c.Elements[i].LossR(f), 0) * out[i].I
+				out[i].Vloss = complex(s.LossR(&c.Elements[i], f), 0) * out[i].I
 			}
 		}
 	}
 	for _, mu := range c.mutuals {
-		r := complex(c.mutualR(mu, f), 0)
+		r := complex(c.mutualR(s, mu, f), 0)
 		out[mu.i].Vloss += r * out[mu.j].I
 		out[mu.j].Vloss += r * out[mu.i].I
 	}
@@ -569,9 +580,9 @@ func (c *Circuit) partStates(x []complex128, f float64, out []PartState, withLos
 // complex-permeability model of a lossy core (µ = µ′ − jµ″, Q = µ′/µ″).
 // With equal Q the matrix of loss resistances is (ω/Q)·L, positive
 // semidefinite like L, so no set of currents dissipates less than zero.
-func (c *Circuit) mutualR(mu mutual, f float64) float64 {
+func (c *Circuit) mutualR(s *System, mu mutual, f float64) float64 {
 	a, b := &c.Elements[mu.i], &c.Elements[mu.j]
-	ra, rb := a.LossR(f), b.LossR(f)
+	ra, rb := s.LossR(a, f), s.LossR(b, f)
 	if !(ra > 0) || !(rb > 0) || f <= 0 {
 		return 0
 	}

@@ -31,6 +31,6 @@ type clearanceModel struct{}
 func (clearanceModel) Branches(*Element) int            { return 0 }
 func (clearanceModel) Stamp(*Element, *System, float64) {}
 func (clearanceModel) LossR(*Element, float64) float64  { return 0 }
-func (clearanceModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (clearanceModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A) - nodeV(x, e.B)}
 }

@@ -28,7 +28,7 @@ func (connectorModel) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, 0)
 }
 
-func (connectorModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (connectorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A), I: x[e.Branch]}
 }
 

@@ -72,7 +72,7 @@ func (c *Circuit) SolveDC(rdc []float64) (*DC, error) {
 	for i := range els {
 		e := &els[i]
 		st := &out.Parts[i]
-		e.Model.State(e, x, 0, st)
+		e.Model.State(e, s, x, 0, st)
 		st.V, st.I = complex(real(st.V), 0), complex(real(st.I), 0)
 		out.P[i] = real(st.V) * real(st.I)
 	}

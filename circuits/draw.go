@@ -26,7 +26,7 @@ func (drawModel) Stamp(e *Element, s *System, f float64) {
 
 // State: the drawn current flows from the node to gnd at DC; at RF the
 // element carries nothing (linear in x: zero).
-func (drawModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (drawModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A) - nodeV(x, e.B)}
 	if f == 0 {
 		st.I = complex(e.Value, 0)

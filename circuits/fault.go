@@ -31,7 +31,7 @@ func (shortModel) Branches(*Element) int { return 1 }
 func (shortModel) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, FaultShortR)
 }
-func (shortModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (shortModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: x[e.Branch]}
 }
 func (shortModel) LossR(*Element, float64) float64 { return 0 }
@@ -44,7 +44,7 @@ func (openModel) Stamp(e *Element, s *System, f float64) {
 		s.Admit(e.A, e.B, FaultOpenG)
 	}
 }
-func (openModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (openModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	if f == 0 {
 		*st = PartState{V: v}

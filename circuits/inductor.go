@@ -85,7 +85,7 @@ func (m inductorModel) Stamp(e *Element, s *System, f float64) {
 	}
 	// at DC the branch equation V = 0·I makes the coil a short; its
 	// winding resistance is read by the DC layer when it exists
-	s.Branch(e.A, e.B, e.Branch, m.winding(e, f))
+	s.Branch(e.A, e.B, e.Branch, m.winding(e, s, f))
 	if e.cp > 0 && f > 0 {
 		// (L + R) ∥ Cp: the self-capacitance across the terminals
 		s.Admit(e.A, e.B, complex(0, 2*math.Pi*f*e.cp))
@@ -94,7 +94,7 @@ func (m inductorModel) Stamp(e *Element, s *System, f float64) {
 
 // State: I is the winding's current (flux, heat), It the terminal current
 // when self-capacitance makes them differ.
-func (inductorModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (inductorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	cur := x[e.Branch]
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	*st = PartState{V: v, I: cur, Lambda: complex(e.Inductance(f), 0) * cur}
@@ -104,11 +104,11 @@ func (inductorModel) State(e *Element, x []complex128, f float64, st *PartState)
 }
 
 // winding is the inductive branch R + jωL (or the measured impedance).
-func (m inductorModel) winding(e *Element, f float64) complex128 {
+func (m inductorModel) winding(e *Element, s *System, f float64) complex128 {
 	if z, ok := e.measuredZ(f); ok && f > 0 {
 		return z
 	}
-	return complex(m.LossR(e, f), 2*math.Pi*f*e.Value)
+	return complex(s.LossR(e, f), 2*math.Pi*f*e.Value)
 }
 
 func (m inductorModel) LossR(e *Element, f float64) float64 {
@@ -150,7 +150,7 @@ var inductorAttrs = map[string]AttrSpec{
 
 // Impedance at the terminals: (R + jωL) ∥ 1/(jωCp).
 func (m inductorModel) Impedance(e *Element, f float64) complex128 {
-	z := m.winding(e, f)
+	z := m.winding(e, nil, f)
 	if e.cp > 0 && f > 0 {
 		return 1 / (1/z + complex(0, 2*math.Pi*f*e.cp))
 	}

@@ -21,11 +21,12 @@ type Model interface {
 	// Stamp adds the element to the system at f; f = 0 is the DC solution.
 	Stamp(e *Element, s *System, f float64)
 	// State reads the element's linear state (voltage, current, flux
-	// linkage; second-port values for two-port kinds) from solution x
-	// into st, overwriting every field (st is not cleared before).
+	// linkage; second-port values for two-port kinds) from solution x of
+	// system s into st, overwriting every field (st is not cleared
+	// before); s gives the frequency's loss table (System.LossR).
 	// Every field it fills must be linear in x, so superposed solutions
 	// (Split) give superposed states.
-	State(e *Element, x []complex128, f float64, st *PartState)
+	State(e *Element, s *System, x []complex128, f float64, st *PartState)
 	// LossR is the series-equivalent loss resistance at f: the element
 	// dissipates |I|²·LossR with I its State current.
 	LossR(e *Element, f float64) float64
@@ -109,6 +110,21 @@ type System struct {
 	// visit, when set, receives every entry instead of storing it (the
 	// residual and the diagnosis of a singular matrix, balance.go)
 	visit func(r, c int, v complex128)
+	// loss is every element's LossR at lossF, asked once per frequency
+	// (Factorization.Refactor): a part's stamp, its state read twice and
+	// the split's dissipation would each evaluate its Q curve again
+	loss  []float64
+	lossF float64
+	hasLoss bool
+}
+
+// LossR is element e's loss resistance at f (Model.LossR), from the
+// table of this frequency when the system has one.
+func (s *System) LossR(e *Element, f float64) float64 {
+	if s != nil && s.hasLoss && f == s.lossF && e.Index < len(s.loss) {
+		return s.loss[e.Index]
+	}
+	return e.Model.LossR(e, f)
 }
 
 // Add adds v at row r, column c.

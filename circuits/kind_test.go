@@ -17,7 +17,7 @@ func (branchResistor) Branches(*Element) int { return 1 }
 func (branchResistor) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, complex(e.Value, 0))
 }
-func (branchResistor) State(e *Element, x []complex128, f float64, st *PartState) {
+func (branchResistor) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: x[e.Branch]}
 }
 func (branchResistor) LossR(e *Element, f float64) float64 { return e.Value }

@@ -194,7 +194,7 @@ func (lineModel) Stamp(e *Element, s *System, f float64) {
 
 // State: V, I are the differential voltage at end 1 and the current into
 // it; V2, I2 the same at end 2.
-func (lineModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (lineModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	a1, b1, a2, b2 := lineEnds(e)
 	*st = PartState{V: nodeV(x, a1) - nodeV(x, b1), I: x[e.Branch],
 		V2: nodeV(x, a2) - nodeV(x, b2), I2: x[e.Branch+1]}

@@ -18,7 +18,7 @@ func (m resistorModel) Stamp(e *Element, s *System, f float64) {
 	s.Admit(e.A, e.B, 1/m.Impedance(e, f))
 }
 
-func (m resistorModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (m resistorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	*st = PartState{V: v, I: v * recip(m.Impedance(e, f))}
 }

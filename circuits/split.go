@@ -88,9 +88,7 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 	for k := 0; k < 2; k++ {
 		w.solveInto(s, f, k, false)
 	}
-	for i := range c.Elements {
-		s.R[i] = c.Elements[i].LossR(f)
-	}
+	copy(s.R, w.fz.loss) // each element's LossR at f, asked once in Refactor
 	return nil
 }
 
@@ -120,7 +118,7 @@ func (w *SplitWork) solveInto(s *Split, f float64, k int, refine bool) {
 	if refine {
 		w.fz.refine(b, x)
 	}
-	c.partStates(x, f, w.parts, false)
+	c.partStates(&w.fz.sys, x, f, w.parts, false)
 	for i, ps := range w.parts {
 		s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
 		s.V2[k][i], s.I2[k][i], s.It[k][i] = ps.V2, ps.I2, ps.It

@@ -27,7 +27,7 @@ func (supplyModel) Stamp(e *Element, s *System, f float64) {
 
 // State: I is the current from the node into the supply (negative while
 // it delivers power).
-func (supplyModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (supplyModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: x[e.Branch]}
 }
 

@@ -59,7 +59,7 @@ func (switchModel) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, complex(math.Max(e.sw.ron, MinDCR), 2*math.Pi*f*e.sw.lon))
 }
 
-func (switchModel) State(e *Element, x []complex128, f float64, st *PartState) {
+func (switchModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	if e.sw.open {
 		*st = PartState{V: v, I: v * complex(0, 2*math.Pi*f*e.sw.coff)}

@@ -998,7 +998,10 @@ func (e *Engine) harmonicSums(w *workspace) {
 				if e.esl[i] {
 					mv = math.Max(mv, mi/(2*math.Pi*s.F*c.Elements[i].Value))
 				}
-				ml := hw.of(s.L[0][i], s.L[1][i]) * eh
+				var ml float64
+				if s.L[0][i] != 0 || s.L[1][i] != 0 {
+					ml = hw.of(s.L[0][i], s.L[1][i]) * eh // no flux in a capacitor
+				}
 				w.pkV[cls][i] += mv
 				w.pkL[cls][i] += ml
 				w.sqV[cls][i] += mv * mv
