@@ -308,8 +308,10 @@ func (freqKind) Stamp(e *Element, s *System, f float64) {
 	s.Admit(e.A, -1, y)
 	s.Admit(e.B, -1, y)
 }
-func (freqKind) State(e *Element, s *System, x []complex128, f float64, st *PartState) { *st = PartState{} }
-func (freqKind) LossR(e *Element, f float64) float64                        { return 0 }
+func (freqKind) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+	*st = PartState{}
+}
+func (freqKind) LossR(e *Element, f float64) float64 { return 0 }
 
 func TestBandWidensForNewPositions(t *testing.T) {
 	Register(&KindSpec{Kind: "testfreqkind", Unit: "ohm", Example: "50", Model: freqKind{},

@@ -113,8 +113,8 @@ type System struct {
 	// loss is every element's LossR at lossF, asked once per frequency
 	// (Factorization.Refactor): a part's stamp, its state read twice and
 	// the split's dissipation would each evaluate its Q curve again
-	loss  []float64
-	lossF float64
+	loss    []float64
+	lossF   float64
 	hasLoss bool
 }
 
