@@ -429,6 +429,7 @@ type partLimits struct {
 	absRatio  [nQ]float64 // rating / derated limit (1/factor); for temp, of the allowed rises
 	advice    [nQ]bool    // a guide, not a rating
 	copperR   float64
+	perArea   float64   // 1 / the wire's conducting area at the carrier, 1/m² (0: no wire=)
 	areaRatio []float64 // per harmonic: wire conducting area at the carrier over that at the harmonic
 	dcArea    float64   // wire conducting area at the carrier over the whole section (DC)
 }
@@ -720,9 +721,11 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		// ratio of conducting areas, so the density heats as the sum does;
 		// DC spreads over the whole wire
 		jdc2 := idc * idc * w.lim[i].dcArea
-		if j := rp.CurrentDensity(math.Sqrt((cur*cur+k*k*w.sqIJ[cls][i])*avg+jdc2), f); j > 0 {
-			q[qJrms] = j
-			dcq[qJrms] = rp.CurrentDensity(math.Sqrt(jdc2), f)
+		// Part.CurrentDensity, I over the conducting area at the carrier,
+		// with the area's inverse asked once per carrier (limitsAt)
+		if ja := w.lim[i].perArea; ja > 0 {
+			q[qJrms] = math.Sqrt((cur*cur+k*k*w.sqIJ[cls][i])*avg+jdc2) * ja
+			dcq[qJrms] = math.Sqrt(jdc2) * ja
 			has[qJrms] = true
 		}
 	}
@@ -815,7 +818,9 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 			e.blockCircle(w, i, first, ca, ra, scale, k)
 			continue
 		}
-		for _, x := range [3][2]complex128{{s.V[0][i], s.V[1][i]}, {s.I[0][i], s.I[1][i]}, {s.L[0][i], s.L[1][i]}} {
+		// current first: its worst load usually dissipates most, so the
+		// other two rarely need the thermal model (heats)
+		for _, x := range [3][2]complex128{{s.I[0][i], s.I[1][i]}, {s.V[0][i], s.V[1][i]}, {s.L[0][i], s.L[1][i]}} {
 			if x[1] == 0 {
 				continue // the load does not reach this quantity; other cases hold it
 			}
@@ -1055,7 +1060,9 @@ func (e *Engine) limitsAt(f float64, out []partLimits, ratios []float64, buf *[]
 	for i := range e.C.Elements {
 		rp := e.rparts[i]
 		pl := &out[i]
-		pl.areaRatio = ratios[i*len(e.levels) : (i+1)*len(e.levels)]
+		// out may be a workspace's, holding the previous carrier's: every
+		// field starts afresh
+		*pl = partLimits{areaRatio: ratios[i*len(e.levels) : (i+1)*len(e.levels)]}
 		if rp == nil {
 			pl.hide[qArc] = true
 			continue
@@ -1083,6 +1090,9 @@ func (e *Engine) limitsAt(f float64, out []partLimits, ratios []float64, buf *[]
 		}
 		if rp.Wire > 0 {
 			a0 := ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper)
+			if a0 > 0 {
+				pl.perArea = 1 / a0
+			}
 			for h := range e.levels {
 				ah := ratings.ConductingArea(float64(h+2)*f, rp.Wire, ratings.Rho20Copper)
 				if a0 > 0 && ah > 0 {

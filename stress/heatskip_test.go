@@ -42,3 +42,37 @@ func TestHeatSkipChangesNothing(t *testing.T) {
 		}
 	}
 }
+
+// A single audit asks each carrier's limits into its workspace, reusing
+// the storage carrier after carrier; tolerance trials share limits asked
+// once into fresh storage (cacheLimits). Both give the same audit, to the
+// bit, for the example station's files over several carriers (a limit
+// left over from the previous carrier would show here).
+func TestLimitsPerCarrierAsCached(t *testing.T) {
+	files := []string{"lpf-80m.net", "lpf-160m.net", "lpf-30m.net", "pa-pi-40m.net", "tuner-80m-vertical.net", "rx-bpf-40m.net"}
+	for _, f := range files {
+		src, err := os.ReadFile("../testdata/station/" + f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fresh := build(t, string(src), "points=9")
+		cached := build(t, string(src), "points=9")
+		cached.eng.cacheLimits()
+		a, err := fresh.eng.Audit()
+		if err != nil {
+			t.Fatalf("%s: %v", f, err)
+		}
+		b, err := cached.eng.Audit()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(a.Parts) == 0 || a.NumCases < 9 {
+			t.Fatalf("%s: %d parts, %d cases", f, len(a.Parts), a.NumCases)
+		}
+		for k := range a.Parts {
+			if !reflect.DeepEqual(a.Parts[k], b.Parts[k]) {
+				t.Errorf("%s: %s differs between limits asked per carrier and cached", f, a.Parts[k].Name)
+			}
+		}
+	}
+}
