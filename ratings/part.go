@@ -50,8 +50,15 @@ type Part struct {
 	vpk, vrms, pmax *circuits.Attr
 	irms            *circuits.Attr
 	prof            *Profile
-	line            *circuits.LineSpec // lines: loss against frequency, for the heating limit
-	air             *Atmosphere        // shared with the Set: where gaps are judged
+	// facs are the profile's factors for the part's own class, by
+	// quantity (Quantities order), and those of its core and winding:
+	// asked once at Prepare, not through two map lookups per limit per
+	// carrier
+	facs             [nQuantities]float64
+	facCore, facWire float64
+	facsSet          bool
+	line             *circuits.LineSpec // lines: loss against frequency, for the heating limit
+	air              *Atmosphere        // shared with the Set: where gaps are judged
 }
 
 // Set is every part of a netlist prepared for judging.
@@ -190,7 +197,28 @@ func preparePart(c *circuits.Component, cores map[string]*CoreInfo, prof *Profil
 		p.Class = ClassSwitch
 	}
 	p.prepareGap(c, errs)
+	for i, q := range Quantities {
+		p.facs[i] = prof.Factor(p.Class, q)
+	}
+	p.facCore, p.facWire, p.facsSet = prof.Factor(ClassCore, Bpk), prof.Factor(ClassInductor, Jrms), true
 	return p
+}
+
+// factor is the profile's derating factor for quantity q of class.
+func (p *Part) factor(class string, q Quantity) float64 {
+	if p.facsSet {
+		switch {
+		case class == p.Class:
+			if i := q.index(); i >= 0 {
+				return p.facs[i]
+			}
+		case class == ClassCore && q == Bpk:
+			return p.facCore
+		case class == ClassInductor && q == Jrms:
+			return p.facWire
+		}
+	}
+	return p.prof.Factor(class, q)
 }
 
 // prepareGap reads gap= and medium= (a part's plate or lead spacing, or a
@@ -308,7 +336,7 @@ func (p *Part) AppendLimitValues(dst []Limit, f float64) []Limit { return p.limi
 
 func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 	given := func(q Quantity, a *circuits.Attr, class string) {
-		fac := p.prof.Factor(class, q)
+		fac := p.factor(class, q)
 		if a == nil {
 			l := Limit{Quantity: q, Factor: fac}
 			if text {
@@ -491,7 +519,7 @@ func attrName(q Quantity) string {
 //	inductor below: loss only falls toward DC, rating held;
 //	inductor above: constant Q, R = ωL/Q ∝ f, so I ∝ √(f0/f).
 func (p *Part) currentLimit(f float64, capacitor, text bool) Limit {
-	fac := p.prof.Factor(p.Class, Irms)
+	fac := p.factor(p.Class, Irms)
 	l := Limit{Quantity: Irms, Factor: fac}
 	a := p.irms
 	if a == nil || len(a.Points) == 0 {
@@ -536,7 +564,7 @@ func (p *Part) currentLimit(f float64, capacitor, text bool) Limit {
 // satLimit is the saturation rating: the material's bsat, derated by the
 // profile's core factor.
 func (p *Part) satLimit(text bool) Limit {
-	fac := p.prof.Factor(ClassCore, Bpk)
+	fac := p.factor(ClassCore, Bpk)
 	l := Limit{Quantity: Bpk, Factor: fac}
 	m := p.Core.Material
 	if m == nil || m.Bsat <= 0 {
@@ -597,7 +625,7 @@ func (p *Part) tempLimit(text bool) Limit {
 }
 
 func (p *Part) densityLimit(f float64, text bool) Limit {
-	fac := p.prof.Factor(ClassInductor, Jrms)
+	fac := p.factor(ClassInductor, Jrms)
 	j := DensityLimit(f, p.Wire, Rho20Copper)
 	if !text {
 		return Limit{Quantity: Jrms, Abs: j, Derated: j * fac, Factor: fac}

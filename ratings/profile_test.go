@@ -190,3 +190,31 @@ func TestBuyRating(t *testing.T) {
 		}
 	}
 }
+
+// A part's derating factors asked once at Prepare are the profile's, for
+// every quantity of its class and for its core and winding.
+func TestPartFactorsAsProfile(t *testing.T) {
+	if len(Quantities) != nQuantities {
+		t.Fatalf("%d quantities, nQuantities %d", len(Quantities), nQuantities)
+	}
+	for i, q := range Quantities {
+		if q.index() != i {
+			t.Errorf("%s: index %d, want %d", q, q.index(), i)
+		}
+	}
+	for _, name := range []string{"standard", "strict"} {
+		prof := BuiltinProfile(name)
+		src := "port in a z=50\nport out b z=50\ncore K od=18mm id=10mm h=6mm material=iron mu=10\n" +
+			"inductor L a b 0.6u core=K turns=9 wire=1mm\ncapacitor C1 a gnd 100p dielectric=x7r\ncapacitor C2 b gnd 100p dielectric=air\nresistor R b gnd 50\n"
+		set := mustPrepare(t, src, prof)
+		for _, p := range set.Parts {
+			for _, class := range []string{p.Class, ClassCore, ClassInductor, ClassGapAir} {
+				for _, q := range Quantities {
+					if got, want := p.factor(class, q), prof.Factor(class, q); got != want {
+						t.Errorf("%s %s %s %s: %g, profile %g", name, p.Name, class, q, got, want)
+					}
+				}
+			}
+		}
+	}
+}

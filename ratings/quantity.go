@@ -38,6 +38,35 @@ const (
 // Quantities lists every quantity in report order.
 var Quantities = []Quantity{Vpk, Vrms, Irms, Pdiss, Bpk, Bavg, Temp, Jrms, Pm, Arc}
 
+const nQuantities = 10
+
+// index is q's position in Quantities (−1: not a quantity).
+func (q Quantity) index() int {
+	switch q {
+	case Vpk:
+		return 0
+	case Vrms:
+		return 1
+	case Irms:
+		return 2
+	case Pdiss:
+		return 3
+	case Bpk:
+		return 4
+	case Bavg:
+		return 5
+	case Temp:
+		return 6
+	case Jrms:
+		return 7
+	case Pm:
+		return 8
+	case Arc:
+		return 9
+	}
+	return -1
+}
+
 // Unit is the SI unit a quantity is measured in.
 func (q Quantity) Unit() string {
 	switch q {
