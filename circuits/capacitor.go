@@ -62,7 +62,9 @@ func (m capacitorModel) Stamp(e *Element, s *System, f float64) {
 	if f == 0 {
 		return // open at DC
 	}
-	s.Admit(e.A, e.B, recip(m.impedance(e, f, s.LossR(e, f))))
+	y := recip(m.impedance(e, f, s.LossR(e, f)))
+	s.Keep(e, y)
+	s.Admit(e.A, e.B, y)
 }
 
 func (m capacitorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
@@ -71,7 +73,11 @@ func (m capacitorModel) State(e *Element, s *System, x []complex128, f float64, 
 		*st = PartState{V: v}
 		return
 	}
-	*st = PartState{V: v, I: v * recip(m.impedance(e, f, s.LossR(e, f)))}
+	y, ok := s.Kept(e, f)
+	if !ok {
+		y = recip(m.impedance(e, f, s.LossR(e, f)))
+	}
+	*st = PartState{V: v, I: v * y}
 }
 
 func (capacitorModel) LossR(e *Element, f float64) float64 {

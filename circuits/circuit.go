@@ -338,7 +338,8 @@ type Factorization struct {
 	mat  []complex128
 	y    []complex128 // permuted right-hand side
 	sys  System
-	loss []float64 // each element's LossR at F (System.LossR)
+	loss []float64    // each element's LossR at F (System.LossR)
+	kept []complex128 // what the kinds' stamps keep at F (System.Keep)
 }
 
 // Factor assembles and factorises the network at f with the given load
@@ -398,6 +399,7 @@ func (fz *Factorization) Refactor(f float64) error {
 	s := &fz.sys
 	if len(fz.loss) != len(fz.C.Elements) {
 		fz.loss = make([]float64, len(fz.C.Elements))
+		fz.kept = make([]complex128, len(fz.C.Elements))
 	}
 	for i := range fz.C.Elements {
 		e := &fz.C.Elements[i]
@@ -405,7 +407,7 @@ func (fz *Factorization) Refactor(f float64) error {
 	}
 	if fz.band != nil {
 		*s = System{N: fz.n, perm: fz.perm, band: fz.band}
-		s.loss, s.lossF, s.hasLoss = fz.loss, f, true
+		s.loss, s.lossF, s.hasLoss, s.kept = fz.loss, f, true, fz.kept
 		fz.C.stamp(s, f, fz.Load)
 		if s.outside {
 			fz.plan(f)
@@ -413,7 +415,7 @@ func (fz *Factorization) Refactor(f float64) error {
 		}
 		err = fz.band.Factor()
 	} else {
-		*s = System{N: fz.n, M: fz.mat, loss: fz.loss, lossF: f, hasLoss: true}
+		*s = System{N: fz.n, M: fz.mat, loss: fz.loss, lossF: f, hasLoss: true, kept: fz.kept}
 		fz.C.stamp(s, f, fz.Load)
 		err = fz.lu.Factor(fz.mat)
 	}

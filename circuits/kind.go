@@ -116,6 +116,26 @@ type System struct {
 	loss    []float64
 	lossF   float64
 	hasLoss bool
+	// kept is one value per element that a kind's Stamp may keep for its
+	// State at the same frequency (a capacitor's admittance: computed
+	// once, not again for each solution read)
+	kept []complex128
+}
+
+// Keep stores v for element e at this system's frequency (see Kept).
+func (s *System) Keep(e *Element, v complex128) {
+	if s.kept != nil && e.Index < len(s.kept) {
+		s.kept[e.Index] = v
+	}
+}
+
+// Kept returns what e's Stamp kept at frequency f, if the system keeps
+// values and is at f.
+func (s *System) Kept(e *Element, f float64) (complex128, bool) {
+	if s == nil || s.kept == nil || !s.hasLoss || f != s.lossF || e.Index >= len(s.kept) {
+		return 0, false
+	}
+	return s.kept[e.Index], true
 }
 
 // LossR is element e's loss resistance at f (Model.LossR), from the
