@@ -966,61 +966,80 @@ func (e *Engine) harmonicSums(w *workspace) {
 		}
 		s := w.harm[h]
 		eh := w.hEMF[h]
-		for cls := 0; cls < nClass; cls++ {
-			// the worst of |x0 + α·x1| over the class's loads: the open
-			// port (α = 0), the short, the matched load, or the continuous
-			// SWR circle (|x0 + c·x1| + r·|x1| on the α circle); a circle
-			// that cannot be fitted scans the sampled phases
-			var hw harmWorst
-			switch {
-			case cls == hOpen:
-			case cls == hShort:
-				hw.a = s.Alpha(circuits.Short)
-			case e.nPhase == 0:
-				hw.a = s.Alpha(circuits.Load{Z: w.hz[h]})
-			default:
-				if ca, ra, ok := e.alphaCircle(s, w.hz[h]); ok {
-					hw.a, hw.r = ca, ra
-				} else {
-					hw.scan = w.scanAlpha[:0]
-					for k := 0; k < e.nPhase; k++ {
-						hw.scan = append(hw.scan, s.Alpha(e.circleLoad(w.hz[h], k)))
-					}
-					w.scanAlpha = hw.scan
+		// the worst of |x0 + α·x1| over each class's loads: the open port
+		// (α = 0), the short, the matched load, or the continuous SWR
+		// circle (|x0 + c·x1| + r·|x1| on the α circle); a circle that
+		// cannot be fitted scans the sampled phases
+		var hws [nClass]harmWorst
+		hws[hShort].a = s.Alpha(circuits.Short)
+		switch hw := &hws[hNormal]; {
+		case e.nPhase == 0:
+			hw.a = s.Alpha(circuits.Load{Z: w.hz[h]})
+		default:
+			if ca, ra, ok := e.alphaCircle(s, w.hz[h]); ok {
+				hw.a, hw.r = ca, ra
+			} else {
+				hw.scan = w.scanAlpha[:0]
+				for k := 0; k < e.nPhase; k++ {
+					hw.scan = append(hw.scan, s.Alpha(e.circleLoad(w.hz[h], k)))
 				}
+				w.scanAlpha = hw.scan
 			}
-			for i := range c.Elements {
-				if l := c.Elements[i].Line(); l != nil {
+		}
+		V0, V1, I0, I1, L0, L1 := s.V[0], s.V[1], s.I[0], s.I[1], s.L[0], s.L[1]
+		for i := range c.Elements {
+			if l := c.Elements[i].Line(); l != nil {
+				for cls := 0; cls < nClass; cls++ {
 					e.lineHarmonic(w, l, s, i, h, cls, eh)
-					continue
 				}
-				if e.block[i] {
+				continue
+			}
+			if e.block[i] {
+				for cls := 0; cls < nClass; cls++ {
 					e.blockHarmonic(s, w, i, cls, e.harmonicCircles(w, s, h, cls), eh)
-					continue
 				}
-				mv := hw.of(s.V[0][i], s.V[1][i]) * eh
-				mi := hw.of(s.I[0][i], s.I[1][i]) * eh
-				if e.esl[i] {
-					mv = math.Max(mv, mi/(2*math.Pi*s.F*c.Elements[i].Value))
+				continue
+			}
+			// one part's phasors, every class: read once
+			v0, v1, i0, i1, l0, l1 := V0[i], V1[i], I0[i], I1[i], L0[i], L1[i]
+			flux := l0 != 0 || l1 != 0 // no flux in a capacitor
+			ar, r := w.lim[i].areaRatio[h], s.R[i]
+			var vc, linv float64
+			if e.esl[i] {
+				vc = 1 / (2 * math.Pi * s.F * c.Elements[i].Value)
+			}
+			if s.Coupled[i] {
+				linv = 1 / c.Elements[i].Inductance(s.F)
+			}
+			for cls := 0; cls < nClass; cls++ {
+				hw := &hws[cls]
+				mv := hw.of(v0, v1) * eh
+				mi := hw.of(i0, i1) * eh
+				if vc > 0 {
+					mv = math.Max(mv, mi*vc)
 				}
 				var ml float64
-				if s.L[0][i] != 0 || s.L[1][i] != 0 {
-					ml = hw.of(s.L[0][i], s.L[1][i]) * eh // no flux in a capacitor
+				if flux {
+					ml = hw.of(l0, l1) * eh
 				}
 				w.pkV[cls][i] += mv
 				w.pkL[cls][i] += ml
 				w.sqV[cls][i] += mv * mv
 				w.sqI[cls][i] += mi * mi
-				w.sqIJ[cls][i] += mi * mi * w.lim[i].areaRatio[h]
-				if s.Coupled[i] {
-					im := ml / c.Elements[i].Inductance(s.F)
-					w.sumP[cls][i] += s.R[i] * im * im
+				w.sqIJ[cls][i] += mi * mi * ar
+				if linv > 0 {
+					im := ml * linv
+					w.sumP[cls][i] += r * im * im
 				} else {
-					w.sumP[cls][i] += s.R[i] * mi * mi
+					w.sumP[cls][i] += r * mi * mi
 				}
 			}
-			for ni := range c.Nodes {
-				w.nodeH[cls][ni] += hw.of(s.Node[0][ni], s.Node[1][ni]) * eh
+		}
+		N0, N1 := s.Node[0], s.Node[1]
+		for ni := range c.Nodes {
+			n0, n1 := N0[ni], N1[ni]
+			for cls := 0; cls < nClass; cls++ {
+				w.nodeH[cls][ni] += hws[cls].of(n0, n1) * eh
 			}
 		}
 	}
