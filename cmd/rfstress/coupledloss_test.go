@@ -27,19 +27,7 @@ coupling K1 L1 L2 k=0.99
 inductor L9 n2 gnd 100u q=100
 audit power=100 mode=ssb freq=7.1M swr=1 harmonics=none
 `)
-	code, out, errText := runCLI(t, "audit", net, "--faults", "none", "--json", "-")
-	if code == 2 {
-		t.Fatalf("exit 2: %s", errText)
-	}
-	var j struct {
-		Components []struct {
-			Name  string             `json:"name"`
-			Worst map[string]float64 `json:"worst"`
-		} `json:"components"`
-	}
-	if err := json.Unmarshal([]byte(out), &j); err != nil {
-		t.Fatalf("%v\n%s", err, out)
-	}
+	j := auditWorst(t, net)
 	const want = 0.2 * 70.71 * 70.71 / (100 * 2 * math.Pi * 7.1e6 * 10e-6)
 	for _, c := range j.Components {
 		switch c.Name {
@@ -56,4 +44,27 @@ audit power=100 mode=ssb freq=7.1M swr=1 harmonics=none
 			}
 		}
 	}
+}
+
+// auditComponents is the components of an audit's JSON, each with its
+// worst value per quantity.
+type auditComponents struct {
+	Components []struct {
+		Name  string             `json:"name"`
+		Worst map[string]float64 `json:"worst"`
+	} `json:"components"`
+}
+
+// auditWorst audits net with no faults and returns its JSON components.
+func auditWorst(t *testing.T, net string) auditComponents {
+	t.Helper()
+	code, out, errText := runCLI(t, "audit", net, "--faults", "none", "--json", "-")
+	if code == 2 {
+		t.Fatalf("exit 2: %s", errText)
+	}
+	var j auditComponents
+	if err := json.Unmarshal([]byte(out), &j); err != nil {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	return j
 }
