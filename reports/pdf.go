@@ -320,9 +320,10 @@ func newFontDoc(alias bool) *fontDoc {
 // the embedded fonts (a few milliseconds of the report) in the background
 // while the caller is still auditing. A start serves one report.
 type PDFStart struct {
-	done chan struct{}
-	fd   *fontDoc
-	used atomic.Bool
+	done  chan struct{}
+	fd    *fontDoc
+	fault *struct{ v any } // a panic while starting, raised again in take
+	used  atomic.Bool
 }
 
 // StartPDF begins a report document in the background; give it to the
@@ -331,6 +332,11 @@ func StartPDF() *PDFStart {
 	s := &PDFStart{done: make(chan struct{})}
 	go func() {
 		defer close(s.done)
+		defer func() {
+			if r := recover(); r != nil {
+				s.fault = &struct{ v any }{r}
+			}
+		}()
 		s.fd = newFontDoc(false)
 	}()
 	return s
@@ -342,6 +348,11 @@ func (s *PDFStart) take() *fontDoc {
 		return nil
 	}
 	<-s.done
+	if s.fault != nil {
+		// raised again on the report's goroutine, where the caller's
+		// recover sees it; in the background it would end the process
+		panic(s.fault.v)
+	}
 	return s.fd
 }
 

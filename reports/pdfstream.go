@@ -113,8 +113,15 @@ func deflatePages(doc []byte, alias [2][]byte) ([]byte, bool) {
 	workers := min(runtime.GOMAXPROCS(0), len(pages))
 	var next atomic.Int64
 	var wg sync.WaitGroup
+	var fault atomic.Pointer[struct{ v any }]
 	for range workers {
 		wg.Go(func() {
+			defer func() {
+				if r := recover(); r != nil {
+					fault.CompareAndSwap(nil, &struct{ v any }{r})
+					next.Store(int64(len(pages))) // the others stop
+				}
+			}()
 			zw := zlibWriters.Get().(*zlib.Writer)
 			defer zlibWriters.Put(zw)
 			for {
@@ -144,6 +151,9 @@ func deflatePages(doc []byte, alias [2][]byte) ([]byte, bool) {
 		})
 	}
 	wg.Wait()
+	if p := fault.Load(); p != nil {
+		panic(p.v) // on the caller's goroutine: the command's recover makes it exit 3
+	}
 
 	size := offs[order[0]] + len(doc) - xo
 	for _, pt := range parts {

@@ -17,12 +17,23 @@ func (m *Matcher) TuneAll(cases []Case, workers int) ([]Result, error) {
 	errs := make([]error, len(cases))
 	var wg sync.WaitGroup
 	next := make(chan int)
+	faults := make([]*struct{ v any }, len(cases))
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			for i := range next {
-				out[i], errs[i] = m.Tune(cases[i].F, cases[i].Load.Z)
+				// a panic is kept with its case and raised again in the
+				// caller's goroutine, whose recover reports it (exit 3);
+				// in a worker it would end the process with status 2
+				func() {
+					defer func() {
+						if r := recover(); r != nil {
+							faults[i] = &struct{ v any }{r}
+						}
+					}()
+					out[i], errs[i] = m.Tune(cases[i].F, cases[i].Load.Z)
+				}()
 			}
 		}()
 	}
@@ -31,6 +42,11 @@ func (m *Matcher) TuneAll(cases []Case, workers int) ([]Result, error) {
 	}
 	close(next)
 	wg.Wait()
+	for _, f := range faults {
+		if f != nil {
+			panic(f.v)
+		}
+	}
 	for _, err := range errs {
 		if err != nil {
 			return nil, err

@@ -270,13 +270,26 @@ func runAudit(args []string, stdout, stderr io.Writer) (int, error) {
 	if *reportPath != "" && !toStdout {
 		var buf bytes.Buffer
 		done := make(chan error, 1)
+		var fault *panicked
 		format := text
-		go func() { done <- format(&buf) }()
+		go func() {
+			defer func() {
+				if r := recover(); r != nil {
+					fault = &panicked{r} // raised again below, as exit 3
+					done <- nil
+				}
+			}()
+			done <- format(&buf)
+		}()
 		text = func(w io.Writer) error {
-			if err := <-done; err != nil {
+			err := <-done
+			if fault != nil {
+				panic(fault.v)
+			}
+			if err != nil {
 				return err
 			}
-			_, err := buf.WriteTo(w)
+			_, err = buf.WriteTo(w)
 			return err
 		}
 	}

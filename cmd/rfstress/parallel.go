@@ -24,7 +24,10 @@ func poolSize(workers, n int) int {
 // forEach runs fn(0) … fn(n-1) on the given number of workers, handing
 // out indices in order; once stop(i) is true for a finished job no new
 // job starts. With one worker it is a plain loop. Each fn writes only its
-// own index's result, so the outcome does not depend on the workers.
+// own index's result, so the outcome does not depend on the workers. A
+// panic in a job stops the others and is raised again in the caller's
+// goroutine, where run turns it into exit 3: left in a worker it would end
+// the process with the runtime's status 2, the status of an input error.
 func forEach(n, workers int, fn func(i int), stop func(i int) bool) {
 	if workers <= 1 {
 		for i := 0; i < n; i++ {
@@ -37,8 +40,15 @@ func forEach(n, workers int, fn func(i int), stop func(i int) bool) {
 	var next atomic.Int64
 	var stopped atomic.Bool
 	var wg sync.WaitGroup
+	var first atomic.Pointer[panicked]
 	for range workers {
 		wg.Go(func() {
+			defer func() {
+				if r := recover(); r != nil {
+					first.CompareAndSwap(nil, &panicked{r})
+					stopped.Store(true)
+				}
+			}()
 			for !stopped.Load() {
 				i := int(next.Add(1) - 1)
 				if i >= n {
@@ -51,7 +61,14 @@ func forEach(n, workers int, fn func(i int), stop func(i int) bool) {
 		})
 	}
 	wg.Wait()
+	if p := first.Load(); p != nil {
+		panic(p.v)
+	}
 }
+
+// panicked carries a panic's value from the goroutine it happened in to
+// the one that waits for that goroutine's work.
+type panicked struct{ v any }
 
 // showsProgress reports whether withProgress would draw a bar: then the
 // files are audited one at a time, each with its own bar.
@@ -87,11 +104,14 @@ func startReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64, 
 		i = j
 	}
 	ready := make([]chan struct{}, len(groups))
+	closeOnce := make([]sync.Once, len(groups))
 	for g := range ready {
 		ready[g] = make(chan struct{})
 	}
+	release := func(g int) { closeOnce[g].Do(func() { close(ready[g]) }) }
+	var failed atomic.Pointer[panicked]
 	gather := func(g int) {
-		defer close(ready[g])
+		defer release(g)
 		for i := groups[g][0]; i < groups[g][1]; i++ {
 			e, s := engines[i], b.Sections[i]
 			h := s.Harmonics
@@ -107,12 +127,27 @@ func startReportDoc(b *stress.Bank, engines []*stress.Engine, cautionV float64, 
 			plots[i] = fp
 		}
 	}
-	go forEach(len(groups), max(1, workers-1), gather, func(int) bool { return false })
+	go func() {
+		// a panic while gathering is raised again where the report waits
+		// for the data (FilterAt), on the drawing's goroutine
+		defer func() {
+			if r := recover(); r != nil {
+				failed.Store(&panicked{r})
+				for g := range ready {
+					release(g)
+				}
+			}
+		}()
+		forEach(len(groups), max(1, workers-1), gather, func(int) bool { return false })
+	}()
 	doc.FilterAt = func(i int) *reports.FilterPlot {
 		if i >= n {
 			return nil
 		}
 		<-ready[group[i]]
+		if p := failed.Load(); p != nil {
+			panic(p.v)
+		}
 		s := b.Sections[i]
 		if s.Harmonics == nil {
 			s.Harmonics = plots[i].Harmonics
