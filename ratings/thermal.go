@@ -123,8 +123,15 @@ const SmallBodyWarnRise = 40.0
 // asks for the dissipation when the dielectric makes it large (a class
 // II disc, a lossy part at a high current). An air or vacuum capacitor
 // is no small body (its loss spreads over plates and frame): left out.
+// A class I part with a current rating is left out too: its maker's irms=
+// already bounds its self-heating at the loss such a dielectric has (a
+// transmitting mica carrying 12 A dissipates half a watt by design); a
+// class II part's loss at RF is more than a current rating allows for.
 func (p *Part) UnratedHeat(pavg float64) (Finding, bool) {
 	if p.Kind != circuits.Capacitor || p.pmax != nil || !(pavg > 0) || p.Dielectric == "air" || p.Dielectric == "vacuum" {
+		return Finding{}, false
+	}
+	if p.irms != nil && p.Class != ClassCapacitor2 {
 		return Finding{}, false
 	}
 	rise := SmallBodyRise(pavg)

@@ -131,7 +131,9 @@ func TestHeatingRisesWithDissipation(t *testing.T) {
 // 2·π·5² + π·10·4 = 282.7 mm², worked here) by the still-air rule
 // (P[mW]/A[cm²])^0.833 (common practice): 0.706 W gives
 // (706/2.827)^0.833 ≈ 99.5 K. At 0.2 W the disc rises 35 K, under the
-// 40 K that warns; a pmax= rating, or an air variable, says nothing.
+// 40 K that warns; a pmax= rating, an air variable, or a class I part
+// with a current rating (its maker's irms= bounds its self-heating) says
+// nothing; an unrated mica does.
 func TestUnratedCapacitorHeat(t *testing.T) {
 	area := 2*math.Pi*5*5 + math.Pi*10*4 // mm²
 	if math.Abs(SmallBodyArea/(area*1e-6)-1) > 0.01 {
@@ -139,7 +141,8 @@ func TestUnratedCapacitorHeat(t *testing.T) {
 	}
 	src := "port in a z=50\nport out b z=50\ncapacitor C1 a gnd 470p dielectric=x7r vpk=1k irms=1\n" +
 		"capacitor C2 a gnd 470p dielectric=x7r vpk=1k irms=1 pmax=1\n" +
-		"capacitor C3 a gnd 100p dielectric=air vpk=3k irms=5\nresistor R b gnd 50\ninductor L a b 1u q=100\n"
+		"capacitor C3 a gnd 100p dielectric=air vpk=3k irms=5\nresistor R b gnd 50\ninductor L a b 1u q=100\n" +
+		"capacitor C4 b gnd 1n dielectric=mica vpk=500 irms=10\ncapacitor C5 b gnd 1n dielectric=mica vpk=500\n"
 	set := mustPrepare(t, src, nil)
 	f, ok := set.Parts["C1"].UnratedHeat(0.706)
 	want := math.Pow(706/(area/100), 0.833)
@@ -157,5 +160,11 @@ func TestUnratedCapacitorHeat(t *testing.T) {
 	}
 	if _, ok := set.Parts["C3"].UnratedHeat(5); ok {
 		t.Error("an air variable is no small body")
+	}
+	if _, ok := set.Parts["C4"].UnratedHeat(0.706); ok {
+		t.Error("a mica with irms= is bounded by its current rating")
+	}
+	if _, ok := set.Parts["C5"].UnratedHeat(0.706); !ok {
+		t.Error("a mica with no rating of current or dissipation draws no warning")
 	}
 }
