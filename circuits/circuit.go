@@ -442,6 +442,16 @@ func (fz *Factorization) Solve(b []complex128) {
 	}
 }
 
+// Solve2 solves in place for two right-hand sides.
+func (fz *Factorization) Solve2(b, c []complex128) {
+	if fz.band == nil {
+		fz.lu.Solve2(b, c)
+		return
+	}
+	fz.Solve(b)
+	fz.Solve(c)
+}
+
 // N is the number of unknowns.
 func (fz *Factorization) N() int { return fz.n }
 

@@ -60,7 +60,7 @@ func NewSplit(c *Circuit) *Split {
 // SplitWork holds the reusable storage for filling splits.
 type SplitWork struct {
 	fz    *Factorization
-	x     []complex128
+	x, x1 []complex128
 	parts []PartState
 }
 
@@ -69,6 +69,7 @@ func NewSplitWork(c *Circuit) *SplitWork {
 	return &SplitWork{
 		fz:    c.newFactorization(nil),
 		x:     make([]complex128, c.Size()),
+		x1:    make([]complex128, c.Size()),
 		parts: make([]PartState, len(c.Elements)),
 	}
 }
@@ -85,9 +86,12 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 		return err
 	}
 	s.F, s.Zs, s.Zcm = f, c.Zs, c.ZCM
-	for k := 0; k < 2; k++ {
-		w.solveInto(s, f, k, false)
-	}
+	// both excitations solved together (Solve2), then read
+	w.excite(w.x, 0)
+	w.excite(w.x1, 1)
+	w.fz.Solve2(w.x, w.x1)
+	w.read(s, f, 0, w.x)
+	w.read(s, f, 1, w.x1)
 	copy(s.R, w.fz.loss) // each element's LossR at f, asked once in Refactor
 	return nil
 }
@@ -96,11 +100,23 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 // the antenna port) with the current factorisation and stores the states
 // in s; refine adds one step of iterative refinement (FillChecked).
 func (w *SplitWork) solveInto(s *Split, f float64, k int, refine bool) {
-	c := w.fz.C
 	x := w.x
-	for i := range x {
-		x[i] = 0
+	w.excite(x, k)
+	var b []complex128
+	if refine {
+		b = append([]complex128(nil), x...)
 	}
+	w.fz.Solve(x)
+	if refine {
+		w.fz.refine(b, x)
+	}
+	w.read(s, f, k, x)
+}
+
+// excite writes excitation k's right-hand side into x.
+func (w *SplitWork) excite(x []complex128, k int) {
+	c := w.fz.C
+	clear(x)
 	if k == 0 {
 		x[c.In] = 1 / c.Zs
 	} else {
@@ -110,14 +126,11 @@ func (w *SplitWork) solveInto(s *Split, f float64, k int, refine bool) {
 			x[c.OutB] = -1
 		}
 	}
-	var b []complex128
-	if refine {
-		b = append([]complex128(nil), x...)
-	}
-	w.fz.Solve(x)
-	if refine {
-		w.fz.refine(b, x)
-	}
+}
+
+// read stores the states of solution x of excitation k in s.
+func (w *SplitWork) read(s *Split, f float64, k int, x []complex128) {
+	c := w.fz.C
 	c.partStates(&w.fz.sys, x, f, w.parts, false)
 	for i, ps := range w.parts {
 		s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
