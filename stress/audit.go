@@ -856,7 +856,7 @@ func exactWorst(x0, x1, ca complex128, ra float64) complex128 {
 	if r == 0 && m != 0 {
 		r = m / x1
 	}
-	if a := cmplx.Abs(r); a > 0 {
+	if a := absExact(r); a > 0 {
 		u = r * complex(1/a, 0)
 	}
 	return ca + complex(ra, 0)*u
@@ -926,17 +926,17 @@ func (e *Engine) alphaCircle(s *circuits.Split, z0 complex128) (complex128, floa
 // complex form: w = (z3−z1)/(z2−z1), c = (z2−z1)(w−|w|²)/(w−w̄) + z1).
 func circleThrough(z1, z2, z3 complex128) (complex128, float64, bool) {
 	d := z2 - z1
-	if cmplx.Abs(d) == 0 {
+	if d == 0 {
 		return 0, 0, false
 	}
 	wv := (z3 - z1) / d
 	im := imag(wv)
-	if math.Abs(im) < 1e-9*(cmplx.Abs(wv)+1) {
+	if math.Abs(im) < 1e-9*(absExact(wv)+1) {
 		return 0, 0, false // collinear: the circle passes near the pole
 	}
 	ww := real(wv)*real(wv) + imag(wv)*imag(wv)
 	c := d*(wv-complex(ww, 0))/complex(0, 2*im) + z1
-	r := cmplx.Abs(z1 - c)
+	r := absExact(z1 - c)
 	if math.IsNaN(r) || math.IsInf(r, 0) {
 		return 0, 0, false
 	}
@@ -1197,3 +1197,13 @@ func qIndex(q ratings.Quantity) int {
 // It serves the per-case and per-harmonic magnitudes; the circle geometry
 // keeps cmplx.Abs.
 func mag(z complex128) float64 { return math.Sqrt(real(z)*real(z) + imag(z)*imag(z)) }
+
+// absExact is |z| for the circle geometry, where magnitudes may lie
+// anywhere in the float range (deep in a stopband): √(re²+im²) while the
+// squares are normal numbers, math.Hypot's rescaling only outside.
+func absExact(z complex128) float64 {
+	if s := real(z)*real(z) + imag(z)*imag(z); s > 1e-290 && s < 1e290 {
+		return math.Sqrt(s)
+	}
+	return cmplx.Abs(z)
+}

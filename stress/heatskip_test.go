@@ -1,6 +1,8 @@
 package stress
 
 import (
+	"math"
+	"math/cmplx"
 	"os"
 	"reflect"
 	"testing"
@@ -74,5 +76,21 @@ func TestLimitsPerCarrierAsCached(t *testing.T) {
 				t.Errorf("%s: %s differs between limits asked per carrier and cached", f, a.Parts[k].Name)
 			}
 		}
+	}
+}
+
+// absExact agrees with math/cmplx.Abs (math.Hypot) to rounding over the
+// whole float range, through both of its branches.
+func TestAbsExact(t *testing.T) {
+	for _, m := range []float64{1e-300, 1e-200, 1e-146, 1e-140, 1e-3, 1, 1e3, 1e140, 1e146, 1e200, 1e300} {
+		for _, th := range []float64{0, 0.3, 1.2, 2.9, 4.4} {
+			z := complex(m*math.Cos(th), m*math.Sin(th))
+			if got, want := absExact(z), cmplx.Abs(z); math.Abs(got-want) > 2e-16*want {
+				t.Errorf("|%v|: %v, Hypot %v", z, got, want)
+			}
+		}
+	}
+	if absExact(0) != 0 {
+		t.Error("|0| is not 0")
 	}
 }

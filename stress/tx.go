@@ -67,8 +67,8 @@ func (e *Engine) txAt(s *circuits.Split, alpha complex128, scale float64) TxView
 	} else {
 		v.Zin = complex(math.Inf(1), 0)
 	}
-	if cmplx.Abs(den) > 0 {
-		v.Gamma = cmplx.Abs((vin - z*iin) / den)
+	if d := absExact(den); d > 0 {
+		v.Gamma = absExact(vin-z*iin) / d
 	} else {
 		v.Gamma = 1
 	}
