@@ -16,17 +16,18 @@ import (
 type Split struct {
 	F        float64
 	Voc, Zth complex128 // Thevenin equivalent at the antenna port
-	V, I, L  [2][]complex128
-	V2, I2   [2][]complex128 // second-port states of two-port kinds
-	It       [2][]complex128 // terminal currents where they differ from I (zero otherwise)
-	R        []float64       // loss resistance per element at F
+	// P holds each element's state for each excitation: V, I and flux
+	// linkage, the second port's V2, I2 for two-port kinds, the terminal
+	// current It where it differs from I, a coupled winding's loss
+	// voltage Vloss (Ploss is not set)
+	P [2][]PartState
+	R []float64 // loss resistance per element at F
 	// Ports marks elements whose loss is the power into their two ports
 	// (lines), not R·|I|².
 	Ports []bool
-	// Coupled marks windings of a coupling: their loss is Re(VL·I*), VL
-	// the loss voltage of PartState.Vloss (linear in the state like V).
+	// Coupled marks windings of a coupling: their loss is Re(Vloss·I*),
+	// with PartState.Vloss linear in the state like V.
 	Coupled []bool
-	VL      [2][]complex128
 	Node    [2][]complex128
 	Vin     [2]complex128
 	Zs      complex128
@@ -45,13 +46,7 @@ func NewSplit(c *Circuit) *Split {
 		s.Coupled[i] = c.Coupled(i)
 	}
 	for k := 0; k < 2; k++ {
-		s.V[k] = make([]complex128, n)
-		s.I[k] = make([]complex128, n)
-		s.L[k] = make([]complex128, n)
-		s.V2[k] = make([]complex128, n)
-		s.I2[k] = make([]complex128, n)
-		s.It[k] = make([]complex128, n)
-		s.VL[k] = make([]complex128, n)
+		s.P[k] = make([]PartState, n)
 		s.Node[k] = make([]complex128, nn)
 	}
 	return s
@@ -61,16 +56,14 @@ func NewSplit(c *Circuit) *Split {
 type SplitWork struct {
 	fz    *Factorization
 	x, x1 []complex128
-	parts []PartState
 }
 
 // NewSplitWork prepares storage for c.
 func NewSplitWork(c *Circuit) *SplitWork {
 	return &SplitWork{
-		fz:    c.newFactorization(nil),
-		x:     make([]complex128, c.Size()),
-		x1:    make([]complex128, c.Size()),
-		parts: make([]PartState, len(c.Elements)),
+		fz: c.newFactorization(nil),
+		x:  make([]complex128, c.Size()),
+		x1: make([]complex128, c.Size()),
 	}
 }
 
@@ -131,12 +124,7 @@ func (w *SplitWork) excite(x []complex128, k int) {
 // read stores the states of solution x of excitation k in s.
 func (w *SplitWork) read(s *Split, f float64, k int, x []complex128) {
 	c := w.fz.C
-	c.partStates(&w.fz.sys, x, f, w.parts, false)
-	for i, ps := range w.parts {
-		s.V[k][i], s.I[k][i], s.L[k][i] = ps.V, ps.I, ps.Lambda
-		s.V2[k][i], s.I2[k][i], s.It[k][i] = ps.V2, ps.I2, ps.It
-		s.VL[k][i] = ps.Vloss
-	}
+	c.partStates(&w.fz.sys, x, f, s.P[k], false) // straight into the split
 	copy(s.Node[k], x[:len(c.Nodes)])
 	s.Vin[k] = x[c.In]
 	s.Cm[k] = c.CommonModeI(x)
@@ -167,18 +155,18 @@ func (s *Split) Alpha(l Load) complex128 {
 
 // Part returns the state of element i for weight α and EMF e (rms).
 func (s *Split) Part(i int, alpha, e complex128) PartState {
-	v := (s.V[0][i] + alpha*s.V[1][i]) * e
-	cur := (s.I[0][i] + alpha*s.I[1][i]) * e
-	lam := (s.L[0][i] + alpha*s.L[1][i]) * e
-	v2 := (s.V2[0][i] + alpha*s.V2[1][i]) * e
-	i2 := (s.I2[0][i] + alpha*s.I2[1][i]) * e
-	it := (s.It[0][i] + alpha*s.It[1][i]) * e
+	v := (s.P[0][i].V + alpha*s.P[1][i].V) * e
+	cur := (s.P[0][i].I + alpha*s.P[1][i].I) * e
+	lam := (s.P[0][i].Lambda + alpha*s.P[1][i].Lambda) * e
+	v2 := (s.P[0][i].V2 + alpha*s.P[1][i].V2) * e
+	i2 := (s.P[0][i].I2 + alpha*s.P[1][i].I2) * e
+	it := (s.P[0][i].It + alpha*s.P[1][i].It) * e
 	st := PartState{V: v, I: cur, Lambda: lam, V2: v2, I2: i2, It: it, Ploss: s.R[i] * (real(cur)*real(cur) + imag(cur)*imag(cur))}
 	if s.Ports[i] {
 		st.Ploss = real(v*conj(cur)) + real(v2*conj(i2))
 	}
 	if s.Coupled[i] {
-		st.Vloss = (s.VL[0][i] + alpha*s.VL[1][i]) * e
+		st.Vloss = (s.P[0][i].Vloss + alpha*s.P[1][i].Vloss) * e
 		st.Ploss = real(st.Vloss * conj(cur))
 	}
 	return st

@@ -43,9 +43,9 @@ func (s *Split) Balance() float64 {
 		loss[k] = real(s.Zcm) * abs2(s.Cm[k]) // a balanced load's common mode
 		for i := range s.R {
 			if s.Ports[i] {
-				loss[k] += real(s.V[k][i]*conj(s.I[k][i])) + real(s.V2[k][i]*conj(s.I2[k][i]))
+				loss[k] += real(s.P[k][i].V*conj(s.P[k][i].I)) + real(s.P[k][i].V2*conj(s.P[k][i].I2))
 			} else {
-				loss[k] += s.R[i] * abs2(s.I[k][i])
+				loss[k] += s.R[i] * abs2(s.P[k][i].I)
 			}
 		}
 	}

@@ -655,8 +655,8 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		return
 	}
 	s := w.carr
-	v := mag(s.V[0][i]+alpha*s.V[1][i]) * scale
-	cur := mag(s.I[0][i]+alpha*s.I[1][i]) * scale
+	v := mag(s.P[0][i].V+alpha*s.P[1][i].V) * scale
+	cur := mag(s.P[0][i].I+alpha*s.P[1][i].I) * scale
 	if e.esl[i] {
 		// series inductance: the dielectric sees I/(ωC), which near the
 		// part's own resonance exceeds the terminal voltage
@@ -667,7 +667,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	if e.selfC[i] {
 		a := &w.acc[i]
 		a.iwMax = math.Max(a.iwMax, cur)
-		a.itMax = math.Max(a.itMax, mag(s.It[0][i]+alpha*s.It[1][i])*scale)
+		a.itMax = math.Max(a.itMax, mag(s.P[0][i].It+alpha*s.P[1][i].It)*scale)
 	}
 	avg := e.Cond.AvgRatio
 	var q [nQ]float64
@@ -686,7 +686,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		// linkage, (ω/Q)·|λ|²/L = R·|λ/L|²: for windings sharing one core
 		// that is the core's whole loss (the load's ampere-turns cancel),
 		// for a loose coupling it is the lone coil's R·|I|²
-		im := mag(s.L[0][i]+alpha*s.L[1][i]) * scale / w.c.Elements[i].Inductance(f)
+		im := mag(s.P[0][i].Lambda+alpha*s.P[1][i].Lambda) * scale / w.c.Elements[i].Inductance(f)
 		prf = s.R[i] * im * im
 	}
 	q[qPdiss] = (prf+k*k*w.sumP[cls][i])*avg + pdc
@@ -696,7 +696,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	var heat ratings.Heat
 	if rp := e.rparts[i]; rp != nil {
 		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
-			lam := mag(s.L[0][i]+alpha*s.L[1][i]) * scale
+			lam := mag(s.P[0][i].Lambda+alpha*s.P[1][i].Lambda) * scale
 			rf := rp.FluxPeak(math.Sqrt2 * (lam + k*w.pkL[cls][i]))
 			// the DC bias flux L·Idc/(N·Ae) adds to the peak judged
 			// against saturation; the heating guide looks at the RF
@@ -820,7 +820,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		}
 		// current first: its worst load usually dissipates most, so the
 		// other two rarely need the thermal model (heats)
-		for _, x := range [3][2]complex128{{s.I[0][i], s.I[1][i]}, {s.V[0][i], s.V[1][i]}, {s.L[0][i], s.L[1][i]}} {
+		for _, x := range [3][2]complex128{{s.P[0][i].I, s.P[1][i].I}, {s.P[0][i].V, s.P[1][i].V}, {s.P[0][i].Lambda, s.P[1][i].Lambda}} {
 			if x[1] == 0 {
 				continue // the load does not reach this quantity; other cases hold it
 			}
@@ -986,7 +986,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 				w.scanAlpha = hw.scan
 			}
 		}
-		V0, V1, I0, I1, L0, L1 := s.V[0], s.V[1], s.I[0], s.I[1], s.L[0], s.L[1]
+		P0, P1 := s.P[0], s.P[1]
 		for i := range c.Elements {
 			if l := c.Elements[i].Line(); l != nil {
 				for cls := 0; cls < nClass; cls++ {
@@ -1001,7 +1001,8 @@ func (e *Engine) harmonicSums(w *workspace) {
 				continue
 			}
 			// one part's phasors, every class: read once
-			v0, v1, i0, i1, l0, l1 := V0[i], V1[i], I0[i], I1[i], L0[i], L1[i]
+			p0, p1 := &P0[i], &P1[i]
+			v0, v1, i0, i1, l0, l1 := p0.V, p1.V, p0.I, p1.I, p0.Lambda, p1.Lambda
 			flux := l0 != 0 || l1 != 0 // no flux in a capacitor
 			ar, r := w.lim[i].areaRatio[h], s.R[i]
 			var vc, linv float64

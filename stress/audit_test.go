@@ -159,10 +159,11 @@ func TestFastPathEqualsFullSolve(t *testing.T) {
 			ps := s.Part(i, a, complex(e, 0))
 			// superposition cancels terms where the full solve gives 0 (a
 			// shorted port): the floor is rounding of the terms' size
-			terms := func(x [2][]complex128) float64 {
-				return e * (cmplx.Abs(x[0][i]) + cmplx.Abs(a)*cmplx.Abs(x[1][i]))
+			terms := func(x0, x1 complex128) float64 {
+				return e * (cmplx.Abs(x0) + cmplx.Abs(a)*cmplx.Abs(x1))
 			}
-			for _, pair := range [][3]complex128{{ps.V, r.Parts[i].V, complex(terms(s.V), 0)}, {ps.I, r.Parts[i].I, complex(terms(s.I), 0)}, {ps.Lambda, r.Parts[i].Lambda, complex(terms(s.L), 0)}} {
+			p0, p1 := s.P[0][i], s.P[1][i]
+			for _, pair := range [][3]complex128{{ps.V, r.Parts[i].V, complex(terms(p0.V, p1.V), 0)}, {ps.I, r.Parts[i].I, complex(terms(p0.I, p1.I), 0)}, {ps.Lambda, r.Parts[i].Lambda, complex(terms(p0.Lambda, p1.Lambda), 0)}} {
 				if d := cmplx.Abs(pair[0] - pair[1]); d > 1e-9*cmplx.Abs(pair[1])+1e-13*real(pair[2])+1e-15 {
 					t.Fatalf("load %v part %d: fast %v full %v", l, i, pair[0], pair[1])
 				}

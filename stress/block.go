@@ -33,17 +33,17 @@ func circleMax(x0, x1, c complex128, r float64) float64 {
 // blockQ computes a block's quantities for the weight circle (c, r).
 func (e *Engine) blockQ(w *workspace, i, cls int, c complex128, r, scale, k float64) (q [nQ]float64, has [nQ]bool, av, ai, ap complex128) {
 	s := w.carr
-	v1 := circleMax(s.V[0][i], s.V[1][i], c, r)
-	v2 := circleMax(s.V2[0][i], s.V2[1][i], c, r)
-	i1 := circleMax(s.I[0][i], s.I[1][i], c, r)
-	i2 := circleMax(s.I2[0][i], s.I2[1][i], c, r)
-	av = crestAlpha(s.V[0][i], s.V[1][i], c, r)
+	v1 := circleMax(s.P[0][i].V, s.P[1][i].V, c, r)
+	v2 := circleMax(s.P[0][i].V2, s.P[1][i].V2, c, r)
+	i1 := circleMax(s.P[0][i].I, s.P[1][i].I, c, r)
+	i2 := circleMax(s.P[0][i].I2, s.P[1][i].I2, c, r)
+	av = crestAlpha(s.P[0][i].V, s.P[1][i].V, c, r)
 	if v2 > v1 {
-		av = crestAlpha(s.V2[0][i], s.V2[1][i], c, r)
+		av = crestAlpha(s.P[0][i].V2, s.P[1][i].V2, c, r)
 	}
-	ai = crestAlpha(s.I[0][i], s.I[1][i], c, r)
+	ai = crestAlpha(s.P[0][i].I, s.P[1][i].I, c, r)
 	if i2 > i1 {
-		ai = crestAlpha(s.I2[0][i], s.I2[1][i], c, r)
+		ai = crestAlpha(s.P[0][i].I2, s.P[1][i].I2, c, r)
 	}
 	pd, ap := lineDiss(s, i, c, r)
 	vm, im := math.Max(v1, v2)*scale, math.Max(i1, i2)*scale
@@ -82,8 +82,8 @@ func (e *Engine) blockCircle(w *workspace, i, first int, ca complex128, ra, scal
 func (e *Engine) blockHarmonic(s *circuits.Split, w *workspace, i, cls int, cs []weightCircle, eh float64) {
 	var vm, im, pd float64
 	for _, x := range cs {
-		vm = math.Max(vm, math.Max(circleMax(s.V[0][i], s.V[1][i], x.c, x.r), circleMax(s.V2[0][i], s.V2[1][i], x.c, x.r)))
-		im = math.Max(im, math.Max(circleMax(s.I[0][i], s.I[1][i], x.c, x.r), circleMax(s.I2[0][i], s.I2[1][i], x.c, x.r)))
+		vm = math.Max(vm, math.Max(circleMax(s.P[0][i].V, s.P[1][i].V, x.c, x.r), circleMax(s.P[0][i].V2, s.P[1][i].V2, x.c, x.r)))
+		im = math.Max(im, math.Max(circleMax(s.P[0][i].I, s.P[1][i].I, x.c, x.r), circleMax(s.P[0][i].I2, s.P[1][i].I2, x.c, x.r)))
 		p, _ := lineDiss(s, i, x.c, x.r)
 		pd = math.Max(pd, p)
 	}

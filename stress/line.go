@@ -44,8 +44,8 @@ var allQ = func() (m [nQ]bool) {
 // current crest are and the weights that reach them.
 func (e *Engine) lineQ(w *workspace, l *circuits.LineSpec, i, cls int, c complex128, r, scale, k, f float64) (q [nQ]float64, has [nQ]bool, av, ai, ap complex128) {
 	s := w.carr
-	v0, i0 := l.VoltageWaves(s.V[0][i], s.I[0][i])
-	v1, i1 := l.VoltageWaves(s.V[1][i], s.I[1][i])
+	v0, i0 := l.VoltageWaves(s.P[0][i].V, s.P[0][i].I)
+	v1, i1 := l.VoltageWaves(s.P[1][i].V, s.P[1][i].I)
 	vm, zv := l.MaxAlong(f, circuits.Lin(v0, v1, c), v1, r)
 	im, zi := l.MaxAlong(f, circuits.Lin(i0, i1, c), i1, r)
 	pd, ap := lineDiss(s, i, c, r)
@@ -118,8 +118,8 @@ func (e *Engine) lineCircle(w *workspace, l *circuits.LineSpec, i, first int, ca
 func (e *Engine) lineHarmonic(w *workspace, l *circuits.LineSpec, s *circuits.Split, i, h, cls int, eh float64) {
 	f := s.F
 	cs := e.harmonicCircles(w, s, h, cls)
-	v0, i0 := l.VoltageWaves(s.V[0][i], s.I[0][i])
-	v1, i1 := l.VoltageWaves(s.V[1][i], s.I[1][i])
+	v0, i0 := l.VoltageWaves(s.P[0][i].V, s.P[0][i].I)
+	v1, i1 := l.VoltageWaves(s.P[1][i].V, s.P[1][i].I)
 	var vm, im, pd float64
 	for _, x := range cs {
 		a, _ := l.MaxAlong(f, circuits.Lin(v0, v1, x.c), v1, x.r)
@@ -141,10 +141,10 @@ func (e *Engine) lineHarmonic(w *workspace, l *circuits.LineSpec, s *circuits.Sp
 // and on the circle D = const + r·Re(u·(N + 2K·c̄)), largest where u lines
 // up with the conjugate of N + 2K·c̄.
 func lineDiss(s *circuits.Split, i int, c complex128, r float64) (float64, complex128) {
-	a0, a1 := s.V[0][i], s.V[1][i]
-	b0, b1 := s.I[0][i], s.I[1][i]
-	c0, c1 := s.V2[0][i], s.V2[1][i]
-	d0, d1 := s.I2[0][i], s.I2[1][i]
+	a0, a1 := s.P[0][i].V, s.P[1][i].V
+	b0, b1 := s.P[0][i].I, s.P[1][i].I
+	c0, c1 := s.P[0][i].V2, s.P[1][i].V2
+	d0, d1 := s.P[0][i].I2, s.P[1][i].I2
 	M := real(a0*cmplx.Conj(b0)) + real(c0*cmplx.Conj(d0))
 	N := a1*cmplx.Conj(b0) + cmplx.Conj(a0)*b1 + c1*cmplx.Conj(d0) + cmplx.Conj(c0)*d1
 	K := real(a1*cmplx.Conj(b1)) + real(c1*cmplx.Conj(d1))
