@@ -158,6 +158,7 @@ type Engine struct {
 	// tri are three reflection coefficients on the SWR circle, 120° apart:
 	// the loads alphaCircle fits the α circle through
 	tri        [3]complex128
+	rho        float64 // |Γ| of the SWR circle
 	faults     []CaseKind
 	perCarrier int
 	rparts     []*ratings.Part
@@ -197,6 +198,7 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 		// the exact worst of the continuous circle visits none of them
 		e.nPhase = cond.Phases
 		g := (cond.SWR - 1) / (cond.SWR + 1)
+		e.rho = g
 		for k := range e.tri {
 			sin, cos := math.Sincos(2 * math.Pi * float64(k) / 3)
 			e.tri[k] = complex(g*cos, g*sin)
@@ -904,6 +906,29 @@ func (a *accum) uses(ci int) bool {
 // alphaCircle fits the circle traced by α over the SWR circle through three
 // of its points.
 func (e *Engine) alphaCircle(s *circuits.Split, z0 complex128) (complex128, float64, bool) {
+	// α = −Voc/(Zth + Z(Γ)), Z = (z0 + Γ·z0*)/(1 − Γ), is the bilinear
+	// map α = (aΓ + b)/(cΓ + d) with a = Voc, b = −Voc, c = z0* − Zth,
+	// d = Zth + z0, and the image of the circle |Γ| = ρ under such a map
+	// has centre (b·d̄ − a·c̄·ρ²)/(|d|² − ρ²|c|²) and radius
+	// ρ·|ad − bc|/||d|² − ρ²|c|²|, with ad − bc = 2·Voc·Re z0 (any text
+	// on bilinear maps): no load is drawn. Near a pole on the circle, or
+	// with anything not finite, the circle is fitted through three loads.
+	rho := e.rho
+	c, d := cmplx.Conj(z0)-s.Zth, s.Zth+z0
+	dd, cc := real(d)*real(d)+imag(d)*imag(d), rho*rho*(real(c)*real(c)+imag(c)*imag(c))
+	if den := dd - cc; den > 1e-9*(dd+cc) {
+		centre := -s.Voc * (cmplx.Conj(d) + complex(rho*rho, 0)*cmplx.Conj(c)) * complex(1/den, 0)
+		radius := 2 * rho * absExact(s.Voc) * real(z0) / den
+		if !cmplx.IsNaN(centre) && !cmplx.IsInf(centre) && radius >= 0 && !math.IsInf(radius, 0) {
+			return centre, radius, true
+		}
+	}
+	return e.alphaCircleFit(s, z0)
+}
+
+// alphaCircleFit fits the circle traced by α over the SWR circle through
+// three of its points.
+func (e *Engine) alphaCircleFit(s *circuits.Split, z0 complex128) (complex128, float64, bool) {
 	var a [3]complex128
 	for k := 0; k < 3; k++ {
 		a[k] = s.Alpha(circuits.LoadForGamma(z0, e.tri[k]))

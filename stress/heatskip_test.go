@@ -6,6 +6,8 @@ import (
 	"os"
 	"reflect"
 	"testing"
+
+	"rfstress/circuits"
 )
 
 // Skipping the thermal model for cases that dissipate no more than one
@@ -92,5 +94,42 @@ func TestAbsExact(t *testing.T) {
 	}
 	if absExact(0) != 0 {
 		t.Error("|0| is not 0")
+	}
+}
+
+// The α circle in closed form (the image of |Γ| = ρ under the bilinear
+// map of the load) is the circle through three of its loads (the fit it
+// replaced) to 1e-9 of its size, over the 80 m lowpass from 1 to 60 MHz,
+// real and complex antenna impedances and SWR 1.5 to 20.
+func TestAlphaCircleClosedFormAsFit(t *testing.T) {
+	src, err := os.ReadFile("../testdata/station/lpf-80m.net")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, swr := range []string{"1.5", "3", "20"} {
+		fx := build(t, string(src), "swr="+swr)
+		s := circuits.NewSplit(fx.c)
+		sw := circuits.NewSplitWork(fx.c)
+		n := 0
+		for f := 1e6; f < 60e6; f *= 1.07 {
+			if err := sw.Fill(s, f); err != nil {
+				t.Fatal(err)
+			}
+			for _, z0 := range []complex128{50, 25 + 30i, 200 - 150i, 8 + 1i} {
+				c, r, ok := fx.eng.alphaCircle(s, z0)
+				cf, rf, okf := fx.eng.alphaCircleFit(s, z0)
+				if !ok || !okf {
+					t.Fatalf("SWR %s, %g Hz, z0 %v: closed form %v, fit %v", swr, f, z0, ok, okf)
+				}
+				size := cmplx.Abs(cf) + rf
+				if cmplx.Abs(c-cf) > 1e-9*size || math.Abs(r-rf) > 1e-9*size {
+					t.Errorf("SWR %s, %g Hz, z0 %v: centre %v radius %g; fitted %v %g", swr, f, z0, c, r, cf, rf)
+				}
+				n++
+			}
+		}
+		if n < 200 {
+			t.Fatalf("only %d circles", n)
+		}
 	}
 }
