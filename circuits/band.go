@@ -1,5 +1,10 @@
 package circuits
 
+import (
+	"math"
+	"math/cmplx"
+)
+
 // BandLU is a complex band LU factorisation with partial pivoting, the
 // scheme of LAPACK's zgbtrf: the matrix has kl sub- and ku
 // super-diagonals; choosing each pivot among the kl rows below the
@@ -120,3 +125,12 @@ func (b *BandLU) Solve(x []complex128) {
 
 // abs2 is |z|².
 func abs2(z complex128) float64 { return real(z)*real(z) + imag(z)*imag(z) }
+
+// modulus is |z|, as √(re²+im²) where the squares can neither overflow
+// nor underflow, else by hypot: the square root alone costs less.
+func modulus(z complex128) float64 {
+	if s := abs2(z); s > 1e-290 && s < 1e290 {
+		return math.Sqrt(s)
+	}
+	return cmplx.Abs(z)
+}

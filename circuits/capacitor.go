@@ -80,6 +80,15 @@ func (m capacitorModel) State(e *Element, s *System, x []complex128, f float64, 
 	*st = PartState{V: v, I: v * y}
 }
 
+// Ratios: State sets I = y·V with y the admittance kept by Stamp.
+func (m capacitorModel) Ratios(e *Element, s *System, f float64) (iPerV, lamPerI float64) {
+	y, ok := s.Kept(e, f)
+	if !ok {
+		y = recip(m.impedance(e, f, s.LossR(e, f)))
+	}
+	return modulus(y), 0
+}
+
 func (capacitorModel) LossR(e *Element, f float64) float64 {
 	if z, ok := e.measuredZ(f); ok {
 		return real(z)

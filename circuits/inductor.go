@@ -103,6 +103,12 @@ func (inductorModel) State(e *Element, s *System, x []complex128, f float64, st 
 	}
 }
 
+// Ratios: State sets λ = L(f)·I (a coupled winding's mutual flux, added
+// afterwards, breaks the ratio; the split leaves those out).
+func (inductorModel) Ratios(e *Element, s *System, f float64) (iPerV, lamPerI float64) {
+	return 0, math.Abs(e.Inductance(f))
+}
+
 // winding is the inductive branch R + jωL (or the measured impedance).
 func (m inductorModel) winding(e *Element, s *System, f float64) complex128 {
 	if z, ok := e.measuredZ(f); ok && f > 0 {

@@ -38,6 +38,19 @@ type Dissipator interface {
 	Dissipation(e *Element, st *PartState, f float64) float64
 }
 
+// Proportional is implemented by kinds whose state at a frequency is one
+// phasor times fixed factors: a capacitor's State sets I = Y·V, a lone
+// inductor's λ = L·I. A caller then takes one magnitude and scales it
+// (|I| = |Y|·|V|), and the worst load of one is the worst load of the
+// other: the harmonic worst-case sums and the SWR circle's worst loads
+// need one square root and one evaluation where they took two or three.
+type Proportional interface {
+	// Ratios gives |I|/|V| where State sets I = Y·V and |λ|/|I| where
+	// it sets λ = L·I, at f > 0 with s's loss table; 0 where the state
+	// holds no such fixed factor.
+	Ratios(e *Element, s *System, f float64) (iPerV, lamPerI float64)
+}
+
 // KindSpec is everything package circuits knows about one kind: its
 // statement syntax and its solver model.
 type KindSpec struct {

@@ -29,21 +29,29 @@ type Split struct {
 	// with PartState.Vloss linear in the state like V.
 	Coupled []bool
 	Node    [2][]complex128
-	Vin     [2]complex128
-	Zs      complex128
-	// Cm is each excitation\'s common-mode current into a balanced load\'s
+	// IPerV and LamPerI are each element's fixed ratios |I|/|V| and
+	// |λ|/|I| at F where its kind has them (Proportional), else 0: a
+	// caller scales one magnitude instead of taking another root.
+	IPerV, LamPerI []float64
+	Vin            [2]complex128
+	Zs             complex128
+	// Cm is each excitation's common-mode current into a balanced load's
 	// centre impedance Zcm (zero without cm=).
 	Cm  [2]complex128
 	Zcm complex128
+
+	prop []Proportional // each element's kind where it has fixed ratios
 }
 
 // NewSplit allocates a split for c.
 func NewSplit(c *Circuit) *Split {
 	n, nn := len(c.Elements), len(c.Nodes)
-	s := &Split{R: make([]float64, n), Ports: make([]bool, n), Coupled: make([]bool, n)}
+	s := &Split{R: make([]float64, n), Ports: make([]bool, n), Coupled: make([]bool, n),
+		IPerV: make([]float64, n), LamPerI: make([]float64, n), prop: make([]Proportional, n)}
 	for i := range c.Elements {
 		_, s.Ports[i] = c.Elements[i].Model.(Dissipator)
 		s.Coupled[i] = c.Coupled(i)
+		s.prop[i], _ = c.Elements[i].Model.(Proportional)
 	}
 	for k := 0; k < 2; k++ {
 		s.P[k] = make([]PartState, n)
@@ -130,8 +138,32 @@ func (w *SplitWork) read(s *Split, f float64, k int, x []complex128) {
 	s.Cm[k] = c.CommonModeI(x)
 	if k == 0 {
 		s.Voc = c.VOut(x)
+		w.ratios(s, f)
 	} else {
 		s.Zth = c.VOut(x)
+	}
+}
+
+// ratios sets the split's fixed ratios at f (the same for both
+// excitations). A coupled winding's flux linkage holds its neighbours'
+// flux too, so its λ/I ratio is left out; a ratio that is not a finite
+// positive number is left out as well, and the caller takes the
+// magnitude itself.
+func (w *SplitWork) ratios(s *Split, f float64) {
+	c := w.fz.C
+	for i := range c.Elements {
+		s.IPerV[i], s.LamPerI[i] = 0, 0
+		p := s.prop[i]
+		if p == nil || f <= 0 {
+			continue
+		}
+		ipv, lpi := p.Ratios(&c.Elements[i], &w.fz.sys, f)
+		if ipv > 0 && ipv <= math.MaxFloat64 {
+			s.IPerV[i] = ipv
+		}
+		if lpi > 0 && lpi <= math.MaxFloat64 && !s.Coupled[i] {
+			s.LamPerI[i] = lpi
+		}
 	}
 }
 

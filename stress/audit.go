@@ -164,6 +164,7 @@ type Engine struct {
 	rparts     []*ratings.Part
 	forceScan  bool         // tests: scan the sampled phases instead of the exact worst
 	everyHeat  bool         // tests: evaluate the thermal model at every case (see heats)
+	noRatios   bool         // tests: take every magnitude, ignoring the split's fixed ratios
 	heatT      float64      // key-down time the temperature is judged at, s (+Inf steady)
 	block      []bool       // judged as a two-port by its ports (stress/block.go)
 	esl        []bool       // capacitors with series inductance: the dielectric sees I/(ωC)
@@ -382,14 +383,8 @@ type workspace struct {
 	carr  *circuits.Split
 	harm  []*circuits.Split
 	hEMF  []float64
-	pkV   [nClass][]float64 // Σ over harmonics of the worst peak (rms magnitude)
-	pkL   [nClass][]float64
-	sqV   [nClass][]float64 // Σ of squares
-	sqI   [nClass][]float64
-	sqIJ  [nClass][]float64 // Σ I² weighted by the wire's conducting area, carrier over harmonic
-	sumP  [nClass][]float64
-	nodeH [nClass][]float64
-	pmH   [nClass][]float64 // lines: Σ over harmonics of the hottest metre's dissipation
+	hs    [][nClass]harmSum // each part's harmonic terms per load class
+	nodeH [][nClass]float64 // each node's Σ over harmonics of its worst voltage
 	lim   []partLimits
 	// ratios and limBuf back lim when the workspace asks the limits
 	// itself (an audit without cached limits)
@@ -447,16 +442,8 @@ func (e *Engine) newWorkspace(c *circuits.Circuit) *workspace {
 	for range e.levels {
 		w.harm = append(w.harm, circuits.NewSplit(c))
 	}
-	for k := 0; k < nClass; k++ {
-		w.pkV[k] = make([]float64, n)
-		w.pkL[k] = make([]float64, n)
-		w.sqV[k] = make([]float64, n)
-		w.sqI[k] = make([]float64, n)
-		w.sqIJ[k] = make([]float64, n)
-		w.sumP[k] = make([]float64, n)
-		w.nodeH[k] = make([]float64, len(c.Nodes))
-		w.pmH[k] = make([]float64, n)
-	}
+	w.hs = make([][nClass]harmSum, n)
+	w.nodeH = make([][nClass]float64, len(c.Nodes))
 	w.nodePk = make([]float64, len(c.Nodes))
 	w.nodePkCase = make([]int, len(c.Nodes))
 	return w
@@ -630,7 +617,7 @@ func (e *Engine) evalNodes(w *workspace, ci, cls int, alpha complex128, scale, k
 func (e *Engine) evalNode(w *workspace, ni, ci, cls int, alpha complex128, scale, k float64, nw *nodeWorst) {
 	s := w.carr
 	dc := e.nodeDC(w, ni)
-	v := math.Sqrt2*(mag(s.Node[0][ni]+alpha*s.Node[1][ni])*scale+k*w.nodeH[cls][ni]) + dc
+	v := math.Sqrt2*(mag(s.Node[0][ni]+alpha*s.Node[1][ni])*scale+k*w.nodeH[ni][cls]) + dc
 	if v > nw.vpk {
 		nw.vpk, nw.node, nw.at, nw.dc = v, ni, ci, dc
 	}
@@ -657,8 +644,14 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		return
 	}
 	s := w.carr
+	ipv, lpi := e.ratios(s, i)
 	v := mag(s.P[0][i].V+alpha*s.P[1][i].V) * scale
-	cur := mag(s.P[0][i].I+alpha*s.P[1][i].I) * scale
+	var cur float64
+	if ipv > 0 {
+		cur = v * ipv
+	} else {
+		cur = mag(s.P[0][i].I+alpha*s.P[1][i].I) * scale
+	}
 	if e.esl[i] {
 		// series inductance: the dielectric sees I/(ωC), which near the
 		// part's own resonance exceeds the terminal voltage
@@ -678,9 +671,9 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	// DC adds to RF: peaks add, RMS values add in squares, heat adds. The
 	// DC current flows whether keyed or not, so avg does not scale it.
 	vdc, idc, pdc := w.dcV[i], w.dcI[i], w.dcP[i]
-	q[qVpk] = math.Abs(vdc) + math.Sqrt2*(v+k*w.pkV[cls][i])
-	q[qVrms] = math.Sqrt(vdc*vdc + v*v + k*k*w.sqV[cls][i])
-	irf2 := (cur*cur + k*k*w.sqI[cls][i]) * avg
+	q[qVpk] = math.Abs(vdc) + math.Sqrt2*(v+k*w.hs[i][cls].pkV)
+	q[qVrms] = math.Sqrt(vdc*vdc + v*v + k*k*w.hs[i][cls].sqV)
+	irf2 := (cur*cur + k*k*w.hs[i][cls].sqI) * avg
 	q[qIrms] = math.Sqrt(idc*idc + irf2)
 	prf := s.R[i] * cur * cur
 	if s.Coupled[i] {
@@ -691,15 +684,18 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		im := mag(s.P[0][i].Lambda+alpha*s.P[1][i].Lambda) * scale / w.c.Elements[i].Inductance(f)
 		prf = s.R[i] * im * im
 	}
-	q[qPdiss] = (prf+k*k*w.sumP[cls][i])*avg + pdc
+	q[qPdiss] = (prf+k*k*w.hs[i][cls].sumP)*avg + pdc
 	*dcq = [nQ]float64{}
 	dcq[qVpk], dcq[qVrms], dcq[qIrms], dcq[qPdiss] = math.Abs(vdc), math.Abs(vdc), math.Abs(idc), pdc
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss] = true, true, true, true
 	var heat ratings.Heat
 	if rp := e.rparts[i]; rp != nil {
 		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
-			lam := mag(s.P[0][i].Lambda+alpha*s.P[1][i].Lambda) * scale
-			rf := rp.FluxPeak(math.Sqrt2 * (lam + k*w.pkL[cls][i]))
+			lam := cur * lpi
+			if lpi == 0 {
+				lam = mag(s.P[0][i].Lambda+alpha*s.P[1][i].Lambda) * scale
+			}
+			rf := rp.FluxPeak(math.Sqrt2 * (lam + k*w.hs[i][cls].pkL))
 			// the DC bias flux L·Idc/(N·Ae) adds to the peak judged
 			// against saturation; the heating guide looks at the RF
 			// swing of the average power (core loss follows the swing)
@@ -726,7 +722,7 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		// Part.CurrentDensity, I over the conducting area at the carrier,
 		// with the area's inverse asked once per carrier (limitsAt)
 		if ja := w.lim[i].perArea; ja > 0 {
-			q[qJrms] = math.Sqrt((cur*cur+k*k*w.sqIJ[cls][i])*avg+jdc2) * ja
+			q[qJrms] = math.Sqrt((cur*cur+k*k*w.hs[i][cls].sqIJ)*avg+jdc2) * ja
 			dcq[qJrms] = math.Sqrt(jdc2) * ja
 			has[qJrms] = true
 		}
@@ -821,10 +817,17 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 			continue
 		}
 		// current first: its worst load usually dissipates most, so the
-		// other two rarely need the thermal model (heats)
-		for _, x := range [3][2]complex128{{s.P[0][i].I, s.P[1][i].I}, {s.P[0][i].V, s.P[1][i].V}, {s.P[0][i].Lambda, s.P[1][i].Lambda}} {
+		// other two rarely need the thermal model (heats). A quantity
+		// that is a fixed multiple of the current (a capacitor's V =
+		// I/Y, a lone coil's λ = L·I) has the current's worst load: the
+		// direction of (x0 + c·x1)·x̄1 is the same for both
+		ipv, lpi := e.ratios(s, i)
+		for qx, x := range [3][2]complex128{{s.P[0][i].I, s.P[1][i].I}, {s.P[0][i].V, s.P[1][i].V}, {s.P[0][i].Lambda, s.P[1][i].Lambda}} {
 			if x[1] == 0 {
 				continue // the load does not reach this quantity; other cases hold it
+			}
+			if (qx == 1 && ipv > 0 && s.P[1][i].I != 0) || (qx == 2 && lpi > 0 && s.P[1][i].I != 0) {
+				continue // evaluated at the current's worst load above
 			}
 			a := exactWorst(x[0], x[1], ca, ra)
 			ci := e.circleIndex(w, first, a, disc)
@@ -975,16 +978,8 @@ func circleThrough(z1, z2, z3 complex128) (complex128, float64, bool) {
 // circle), which no sampled phase exceeds.
 func (e *Engine) harmonicSums(w *workspace) {
 	c := w.c
-	for k := 0; k < nClass; k++ {
-		clear(w.pkV[k])
-		clear(w.pkL[k])
-		clear(w.sqV[k])
-		clear(w.sqI[k])
-		clear(w.sqIJ[k])
-		clear(w.sumP[k])
-		clear(w.nodeH[k])
-		clear(w.pmH[k])
-	}
+	clear(w.hs)
+	clear(w.nodeH)
 	for h, lvl := range e.levels {
 		if lvl == 0 {
 			continue
@@ -995,7 +990,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 		// (α = 0), the short, the matched load, or the continuous SWR
 		// circle (|x0 + c·x1| + r·|x1| on the α circle); a circle that
 		// cannot be fitted scans the sampled phases
-		var hws [nClass]harmWorst
+		var hws harmClasses
 		hws[hShort].a = s.Alpha(circuits.Short)
 		switch hw := &hws[hNormal]; {
 		case e.nPhase == 0:
@@ -1027,8 +1022,7 @@ func (e *Engine) harmonicSums(w *workspace) {
 			}
 			// one part's phasors, every class: read once
 			p0, p1 := &P0[i], &P1[i]
-			v0, v1, i0, i1, l0, l1 := p0.V, p1.V, p0.I, p1.I, p0.Lambda, p1.Lambda
-			flux := l0 != 0 || l1 != 0 // no flux in a capacitor
+			flux := p0.Lambda != 0 || p1.Lambda != 0 // no flux in a capacitor
 			ar, r := w.lim[i].areaRatio[h], s.R[i]
 			var vc, linv float64
 			if e.esl[i] {
@@ -1037,38 +1031,87 @@ func (e *Engine) harmonicSums(w *workspace) {
 			if s.Coupled[i] {
 				linv = 1 / c.Elements[i].Inductance(s.F)
 			}
-			for cls := 0; cls < nClass; cls++ {
-				hw := &hws[cls]
-				mv := hw.of(v0, v1) * eh
-				mi := hw.of(i0, i1) * eh
+			// a fixed ratio scales one worst into another: every class's
+			// worst (a point, the circle's |c|+r, a scan's maximum) is
+			// homogeneous in the phasor pair
+			ipv, lpi := e.ratios(s, i)
+			mv := hws.worst(p0.V, p1.V, eh)
+			var mi, ml [nClass]float64
+			if ipv > 0 {
+				for cls := range mv {
+					mi[cls] = mv[cls] * ipv
+				}
+			} else {
+				mi = hws.worst(p0.I, p1.I, eh)
+			}
+			switch {
+			case flux && lpi > 0:
+				for cls := range mi {
+					ml[cls] = mi[cls] * lpi
+				}
+			case flux:
+				ml = hws.worst(p0.Lambda, p1.Lambda, eh)
+			}
+			hs := &w.hs[i]
+			for cls := range hs {
+				v, cur, lam := mv[cls], mi[cls], ml[cls]
 				if vc > 0 {
-					mv = math.Max(mv, mi*vc)
+					v = math.Max(v, cur*vc)
 				}
-				var ml float64
-				if flux {
-					ml = hw.of(l0, l1) * eh
-				}
-				w.pkV[cls][i] += mv
-				w.pkL[cls][i] += ml
-				w.sqV[cls][i] += mv * mv
-				w.sqI[cls][i] += mi * mi
-				w.sqIJ[cls][i] += mi * mi * ar
+				t := &hs[cls]
+				t.pkV += v
+				t.pkL += lam
+				t.sqV += v * v
+				t.sqI += cur * cur
+				t.sqIJ += cur * cur * ar
 				if linv > 0 {
-					im := ml * linv
-					w.sumP[cls][i] += r * im * im
+					im := lam * linv
+					t.sumP += r * im * im
 				} else {
-					w.sumP[cls][i] += r * mi * mi
+					t.sumP += r * cur * cur
 				}
 			}
 		}
 		N0, N1 := s.Node[0], s.Node[1]
 		for ni := range c.Nodes {
-			n0, n1 := N0[ni], N1[ni]
-			for cls := 0; cls < nClass; cls++ {
-				w.nodeH[cls][ni] += hws[cls].of(n0, n1) * eh
+			m := hws.worst(N0[ni], N1[ni], eh)
+			nh := &w.nodeH[ni]
+			for cls := range nh {
+				nh[cls] += m[cls]
 			}
 		}
 	}
+}
+
+// harmClasses is the weight set of every harmonic load class.
+type harmClasses [nClass]harmWorst
+
+// worst gives, per class, the worst of |x0 + α·x1|·eh over the class's
+// weights. The open port's weight is 0: its worst is |x0|.
+func (hws *harmClasses) worst(x0, x1 complex128, eh float64) (m [nClass]float64) {
+	m[hOpen] = mag(x0) * eh
+	m[hShort] = mag(x0+hws[hShort].a*x1) * eh
+	m[hNormal] = hws[hNormal].of(x0, x1) * eh
+	return m
+}
+
+// ratios gives part i's fixed ratios |I|/|V| and |λ|/|I| in split s
+// (circuits.Proportional), 0 where a magnitude must be taken.
+func (e *Engine) ratios(s *circuits.Split, i int) (ipv, lpi float64) {
+	if e.noRatios || i >= len(s.IPerV) {
+		return 0, 0
+	}
+	return s.IPerV[i], s.LamPerI[i]
+}
+
+// harmSum is one part's harmonic terms in one load class, each a sum
+// over the harmonics of that harmonic's worst over the class's loads.
+type harmSum struct {
+	pkV, pkL float64 // worst peak voltage and flux linkage (rms magnitude)
+	sqV, sqI float64 // squares
+	sqIJ     float64 // I² weighted by the wire's conducting area, carrier over harmonic
+	sumP     float64 // dissipation
+	pmH      float64 // lines: the hottest metre's dissipation
 }
 
 // harmWorst is a harmonic load class's weight set: one weight a, a

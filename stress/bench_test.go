@@ -105,6 +105,23 @@ func BenchmarkAuditPhases3600(b *testing.B) {
 	benchAudit(b, append(append([]string{}, benchDefault...), "phases=3600")...)
 }
 
+// BenchmarkAuditHeavy is the heavy audit of BenchmarkAuditHeavyFlopBound
+// alone, without the rate measurements beside it: a fixed amount of work,
+// for comparing builds by instruction count as well as time.
+func BenchmarkAuditHeavy(b *testing.B) {
+	fx := build(b, benchSource(b), benchHeavy...)
+	b.ReportAllocs()
+	for b.Loop() {
+		e, err := NewEngine(fx.c, fx.rs, fx.cond)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := e.Audit(); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
 // BenchmarkAuditNaive is the path the engine avoids, kept here only to
 // show the ratio: a full solve per case at the carrier, and at every
 // harmonic a full solve per load of the sampled circle.

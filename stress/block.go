@@ -48,10 +48,10 @@ func (e *Engine) blockQ(w *workspace, i, cls int, c complex128, r, scale, k floa
 	pd, ap := lineDiss(s, i, c, r)
 	vm, im := math.Max(v1, v2)*scale, math.Max(i1, i2)*scale
 	avg := e.Cond.AvgRatio
-	q[qVpk] = math.Sqrt2 * (vm + k*w.pkV[cls][i])
-	q[qVrms] = math.Sqrt(vm*vm + k*k*w.sqV[cls][i])
-	q[qIrms] = math.Sqrt((im*im + k*k*w.sqI[cls][i]) * avg)
-	q[qPdiss] = (math.Max(pd, 0)*scale*scale + k*k*w.sumP[cls][i]) * avg
+	q[qVpk] = math.Sqrt2 * (vm + k*w.hs[i][cls].pkV)
+	q[qVrms] = math.Sqrt(vm*vm + k*k*w.hs[i][cls].sqV)
+	q[qIrms] = math.Sqrt((im*im + k*k*w.hs[i][cls].sqI) * avg)
+	q[qPdiss] = (math.Max(pd, 0)*scale*scale + k*k*w.hs[i][cls].sumP) * avg
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss] = true, true, true, true
 	return
 }
@@ -94,11 +94,11 @@ func (e *Engine) blockHarmonic(s *circuits.Split, w *workspace, i, cls int, cs [
 // dissipation of a two-port part (line or block) into the class sums by
 // the combination rules: peaks add, RMS values add in squares, heat adds.
 func (w *workspace) addHarmonic(cls, i int, vm, im, pd float64) {
-	w.pkV[cls][i] += vm
-	w.sqV[cls][i] += vm * vm
-	w.sqI[cls][i] += im * im
-	w.sqIJ[cls][i] += im * im
-	w.sumP[cls][i] += pd
+	w.hs[i][cls].pkV += vm
+	w.hs[i][cls].sqV += vm * vm
+	w.hs[i][cls].sqI += im * im
+	w.hs[i][cls].sqIJ += im * im
+	w.hs[i][cls].sumP += pd
 }
 
 // weightCircle is a set of loads as a circle of weights (r = 0: one load).

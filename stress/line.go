@@ -62,11 +62,11 @@ func (e *Engine) lineQ(w *workspace, l *circuits.LineSpec, i, cls int, c complex
 	// current to the RMS current (a remote tuner fed over the coax; a pi
 	// network's missing blocking capacitor)
 	vdc, idc := math.Abs(w.dcV[i]), math.Abs(w.dcI[i])
-	q[qVpk] = vdc + math.Sqrt2*(vm+k*w.pkV[cls][i])
-	q[qVrms] = math.Sqrt(vdc*vdc + vm*vm + k*k*w.sqV[cls][i])
-	q[qIrms] = math.Sqrt(idc*idc + (im*im+k*k*w.sqI[cls][i])*avg)
-	q[qPdiss] = (pd + k*k*w.sumP[cls][i]) * avg
-	q[qPm] = (pm + k*k*w.pmH[cls][i]) * avg
+	q[qVpk] = vdc + math.Sqrt2*(vm+k*w.hs[i][cls].pkV)
+	q[qVrms] = math.Sqrt(vdc*vdc + vm*vm + k*k*w.hs[i][cls].sqV)
+	q[qIrms] = math.Sqrt(idc*idc + (im*im+k*k*w.hs[i][cls].sqI)*avg)
+	q[qPdiss] = (pd + k*k*w.hs[i][cls].sumP) * avg
+	q[qPm] = (pm + k*k*w.hs[i][cls].pmH) * avg
 	has[qVpk], has[qVrms], has[qIrms], has[qPdiss], has[qPm] = true, true, true, true, true
 	return
 }
@@ -129,7 +129,7 @@ func (e *Engine) lineHarmonic(w *workspace, l *circuits.LineSpec, s *circuits.Sp
 	}
 	vm, im, pd = vm*eh, im*eh, pd*eh*eh
 	w.addHarmonic(cls, i, vm, im, pd)
-	w.pmH[cls][i] += 2 * l.Alpha(f) * math.Max(l.Z0*im*im, vm*vm/l.Z0)
+	w.hs[i][cls].pmH += 2 * l.Alpha(f) * math.Max(l.Z0*im*im, vm*vm/l.Z0)
 }
 
 // lineDiss is the largest line dissipation, for a 1 V EMF, over the weight
