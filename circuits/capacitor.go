@@ -81,12 +81,12 @@ func (m capacitorModel) State(e *Element, s *System, x []complex128, f float64, 
 }
 
 // Ratios: State sets I = y·V with y the admittance kept by Stamp.
-func (m capacitorModel) Ratios(e *Element, s *System, f float64) (iPerV, lamPerI float64) {
+func (m capacitorModel) Ratios(e *Element, s *System, f float64) Ratios {
 	y, ok := s.Kept(e, f)
 	if !ok {
 		y = recip(m.impedance(e, f, s.LossR(e, f)))
 	}
-	return modulus(y), 0
+	return Ratios{IPerV: modulus(y)}
 }
 
 func (capacitorModel) LossR(e *Element, f float64) float64 {

@@ -103,10 +103,13 @@ func (inductorModel) State(e *Element, s *System, x []complex128, f float64, st 
 	}
 }
 
-// Ratios: State sets λ = L(f)·I (a coupled winding's mutual flux, added
-// afterwards, breaks the ratio; the split leaves those out).
-func (inductorModel) Ratios(e *Element, s *System, f float64) (iPerV, lamPerI float64) {
-	return 0, math.Abs(e.Inductance(f))
+// Ratios: the branch equation stamped makes V = Z·I with Z the winding's
+// impedance (a self-capacitance sits across the terminals, outside the
+// branch), and State sets λ = L(f)·I. A coupled winding's branch holds
+// its neighbours' mutual voltage and its λ their flux: the split leaves
+// those out.
+func (m inductorModel) Ratios(e *Element, s *System, f float64) Ratios {
+	return Ratios{VPerI: modulus(m.winding(e, s, f)), LamPerI: math.Abs(e.Inductance(f))}
 }
 
 // winding is the inductive branch R + jωL (or the measured impedance).

@@ -39,16 +39,23 @@ type Dissipator interface {
 }
 
 // Proportional is implemented by kinds whose state at a frequency is one
-// phasor times fixed factors: a capacitor's State sets I = Y·V, a lone
-// inductor's λ = L·I. A caller then takes one magnitude and scales it
-// (|I| = |Y|·|V|), and the worst load of one is the worst load of the
-// other: the harmonic worst-case sums and the SWR circle's worst loads
-// need one square root and one evaluation where they took two or three.
+// phasor times fixed factors: a capacitor's State sets I = Y·V; a lone
+// inductor's branch equation makes V = Z·I and its State sets λ = L·I. A
+// caller then takes one magnitude and scales it (|I| = |Y|·|V|), and the
+// worst load of one is the worst load of the other: the harmonic
+// worst-case sums and the SWR circle's worst loads need one square root
+// and one evaluation where they took two or three.
 type Proportional interface {
-	// Ratios gives |I|/|V| where State sets I = Y·V and |λ|/|I| where
-	// it sets λ = L·I, at f > 0 with s's loss table; 0 where the state
-	// holds no such fixed factor.
-	Ratios(e *Element, s *System, f float64) (iPerV, lamPerI float64)
+	// Ratios gives the state's fixed ratios at f > 0 with s's loss
+	// table (0 where the state holds none).
+	Ratios(e *Element, s *System, f float64) Ratios
+}
+
+// Ratios are the fixed ratios of a part's state at one frequency, 0 where
+// the state holds none: |I|/|V| (I = Y·V), |V|/|I| (V = Z·I) and |λ|/|I|
+// (λ = L·I).
+type Ratios struct {
+	IPerV, VPerI, LamPerI float64
 }
 
 // KindSpec is everything package circuits knows about one kind: its

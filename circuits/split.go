@@ -29,10 +29,10 @@ type Split struct {
 	// with PartState.Vloss linear in the state like V.
 	Coupled []bool
 	Node    [2][]complex128
-	// IPerV and LamPerI are each element's fixed ratios |I|/|V| and
-	// |λ|/|I| at F where its kind has them (Proportional), else 0: a
-	// caller scales one magnitude instead of taking another root.
-	IPerV, LamPerI []float64
+	// Ratio is each element's fixed ratios at F where its kind has them
+	// (Proportional), else zero: a caller scales one magnitude instead of
+	// taking another root.
+	Ratio []Ratios
 	Vin            [2]complex128
 	Zs             complex128
 	// Cm is each excitation's common-mode current into a balanced load's
@@ -47,7 +47,7 @@ type Split struct {
 func NewSplit(c *Circuit) *Split {
 	n, nn := len(c.Elements), len(c.Nodes)
 	s := &Split{R: make([]float64, n), Ports: make([]bool, n), Coupled: make([]bool, n),
-		IPerV: make([]float64, n), LamPerI: make([]float64, n), prop: make([]Proportional, n)}
+		Ratio: make([]Ratios, n), prop: make([]Proportional, n)}
 	for i := range c.Elements {
 		_, s.Ports[i] = c.Elements[i].Model.(Dissipator)
 		s.Coupled[i] = c.Coupled(i)
@@ -145,26 +145,29 @@ func (w *SplitWork) read(s *Split, f float64, k int, x []complex128) {
 }
 
 // ratios sets the split's fixed ratios at f (the same for both
-// excitations). A coupled winding's flux linkage holds its neighbours'
-// flux too, so its λ/I ratio is left out; a ratio that is not a finite
-// positive number is left out as well, and the caller takes the
-// magnitude itself.
+// excitations). A coupled winding's branch holds its neighbours' mutual
+// voltage and its flux linkage their flux, so it has none; a ratio that
+// is not a finite positive number is left out as well, and the caller
+// takes the magnitude itself.
 func (w *SplitWork) ratios(s *Split, f float64) {
 	c := w.fz.C
 	for i := range c.Elements {
-		s.IPerV[i], s.LamPerI[i] = 0, 0
+		s.Ratio[i] = Ratios{}
 		p := s.prop[i]
-		if p == nil || f <= 0 {
+		if p == nil || f <= 0 || s.Coupled[i] {
 			continue
 		}
-		ipv, lpi := p.Ratios(&c.Elements[i], &w.fz.sys, f)
-		if ipv > 0 && ipv <= math.MaxFloat64 {
-			s.IPerV[i] = ipv
-		}
-		if lpi > 0 && lpi <= math.MaxFloat64 && !s.Coupled[i] {
-			s.LamPerI[i] = lpi
-		}
+		r := p.Ratios(&c.Elements[i], &w.fz.sys, f)
+		s.Ratio[i] = Ratios{IPerV: finitePositive(r.IPerV), VPerI: finitePositive(r.VPerI), LamPerI: finitePositive(r.LamPerI)}
 	}
+}
+
+// finitePositive is x when it is a finite positive number, else 0.
+func finitePositive(x float64) float64 {
+	if x > 0 && x <= math.MaxFloat64 {
+		return x
+	}
+	return 0
 }
 
 // Alpha is the weight of the unit-injection response for a load; for 1 V

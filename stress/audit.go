@@ -644,12 +644,17 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 		return
 	}
 	s := w.carr
-	ipv, lpi := e.ratios(s, i)
-	v := mag(s.P[0][i].V+alpha*s.P[1][i].V) * scale
-	var cur float64
-	if ipv > 0 {
-		cur = v * ipv
-	} else {
+	r := e.ratios(s, i)
+	var v, cur float64
+	switch {
+	case r.IPerV > 0:
+		v = mag(s.P[0][i].V+alpha*s.P[1][i].V) * scale
+		cur = v * r.IPerV
+	case r.VPerI > 0:
+		cur = mag(s.P[0][i].I+alpha*s.P[1][i].I) * scale
+		v = cur * r.VPerI
+	default:
+		v = mag(s.P[0][i].V+alpha*s.P[1][i].V) * scale
 		cur = mag(s.P[0][i].I+alpha*s.P[1][i].I) * scale
 	}
 	if e.esl[i] {
@@ -691,8 +696,8 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	var heat ratings.Heat
 	if rp := e.rparts[i]; rp != nil {
 		if rp.Core != nil && rp.Turns > 0 && rp.Core.Ae > 0 {
-			lam := cur * lpi
-			if lpi == 0 {
+			lam := cur * r.LamPerI
+			if r.LamPerI == 0 {
 				lam = mag(s.P[0][i].Lambda+alpha*s.P[1][i].Lambda) * scale
 			}
 			rf := rp.FluxPeak(math.Sqrt2 * (lam + k*w.hs[i][cls].pkL))
@@ -819,14 +824,16 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 		// current first: its worst load usually dissipates most, so the
 		// other two rarely need the thermal model (heats). A quantity
 		// that is a fixed multiple of the current (a capacitor's V =
-		// I/Y, a lone coil's λ = L·I) has the current's worst load: the
-		// direction of (x0 + c·x1)·x̄1 is the same for both
-		ipv, lpi := e.ratios(s, i)
+		// I/Y, a lone coil's V = Z·I and λ = L·I) has the current's
+		// worst load: the direction of (x0 + c·x1)·x̄1 is the same for
+		// both, so one evaluation there gives both worsts
+		r := e.ratios(s, i)
+		iOn := s.P[1][i].I != 0
 		for qx, x := range [3][2]complex128{{s.P[0][i].I, s.P[1][i].I}, {s.P[0][i].V, s.P[1][i].V}, {s.P[0][i].Lambda, s.P[1][i].Lambda}} {
 			if x[1] == 0 {
 				continue // the load does not reach this quantity; other cases hold it
 			}
-			if (qx == 1 && ipv > 0 && s.P[1][i].I != 0) || (qx == 2 && lpi > 0 && s.P[1][i].I != 0) {
+			if iOn && ((qx == 1 && (r.IPerV > 0 || r.VPerI > 0)) || (qx == 2 && r.LamPerI > 0)) {
 				continue // evaluated at the current's worst load above
 			}
 			a := exactWorst(x[0], x[1], ca, ra)
@@ -1034,20 +1041,27 @@ func (e *Engine) harmonicSums(w *workspace) {
 			// a fixed ratio scales one worst into another: every class's
 			// worst (a point, the circle's |c|+r, a scan's maximum) is
 			// homogeneous in the phasor pair
-			ipv, lpi := e.ratios(s, i)
-			mv := hws.worst(p0.V, p1.V, eh)
-			var mi, ml [nClass]float64
-			if ipv > 0 {
+			rt := e.ratios(s, i)
+			var mv, mi, ml [nClass]float64
+			switch {
+			case rt.IPerV > 0:
+				mv = hws.worst(p0.V, p1.V, eh)
 				for cls := range mv {
-					mi[cls] = mv[cls] * ipv
+					mi[cls] = mv[cls] * rt.IPerV
 				}
-			} else {
+			case rt.VPerI > 0:
+				mi = hws.worst(p0.I, p1.I, eh)
+				for cls := range mi {
+					mv[cls] = mi[cls] * rt.VPerI
+				}
+			default:
+				mv = hws.worst(p0.V, p1.V, eh)
 				mi = hws.worst(p0.I, p1.I, eh)
 			}
 			switch {
-			case flux && lpi > 0:
+			case flux && rt.LamPerI > 0:
 				for cls := range mi {
-					ml[cls] = mi[cls] * lpi
+					ml[cls] = mi[cls] * rt.LamPerI
 				}
 			case flux:
 				ml = hws.worst(p0.Lambda, p1.Lambda, eh)
@@ -1095,13 +1109,13 @@ func (hws *harmClasses) worst(x0, x1 complex128, eh float64) (m [nClass]float64)
 	return m
 }
 
-// ratios gives part i's fixed ratios |I|/|V| and |λ|/|I| in split s
-// (circuits.Proportional), 0 where a magnitude must be taken.
-func (e *Engine) ratios(s *circuits.Split, i int) (ipv, lpi float64) {
-	if e.noRatios || i >= len(s.IPerV) {
-		return 0, 0
+// ratios gives part i's fixed ratios in split s (circuits.Proportional),
+// zero where a magnitude must be taken.
+func (e *Engine) ratios(s *circuits.Split, i int) circuits.Ratios {
+	if e.noRatios || i >= len(s.Ratio) {
+		return circuits.Ratios{}
 	}
-	return s.IPerV[i], s.LamPerI[i]
+	return s.Ratio[i]
 }
 
 // harmSum is one part's harmonic terms in one load class, each a sum
