@@ -33,8 +33,8 @@ type Split struct {
 	// (Proportional), else zero: a caller scales one magnitude instead of
 	// taking another root.
 	Ratio []Ratios
-	Vin            [2]complex128
-	Zs             complex128
+	Vin   [2]complex128
+	Zs    complex128
 	// Cm is each excitation's common-mode current into a balanced load's
 	// centre impedance Zcm (zero without cm=).
 	Cm  [2]complex128
