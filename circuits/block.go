@@ -16,7 +16,7 @@ const Block Kind = "block"
 
 func init() {
 	Register(&KindSpec{
-		Kind: Block, Model: blockModel{},
+		Kind: Block, Model: &blockModel{},
 		Syntax: Keyword{Fields: []string{"name", "node", "node"}, Attrs: withMeasured(map[string]AttrSpec{
 			"pmax": {Type: TPositive, Units: []string{"W"}, Help: "rated dissipation in W (average)"},
 			"vpk":  {Type: TPositive, Units: []string{"V"}, Help: "rated peak voltage at its ports in V"},
@@ -26,9 +26,9 @@ func init() {
 
 type blockModel struct{}
 
-func (blockModel) Branches(*Element) int { return 2 }
+func (*blockModel) Branches(*Element) int { return 2 }
 
-func (blockModel) Stamp(e *Element, s *System, f float64) {
+func (*blockModel) Stamp(e *Element, s *System, f float64) {
 	k0 := e.Branch
 	for k := 0; k < 2; k++ {
 		s.Add(e.Nodes[k], k0+k, 1) // the port current leaves its node into the block
@@ -54,15 +54,15 @@ func (blockModel) Stamp(e *Element, s *System, f float64) {
 	}
 }
 
-func (blockModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (*blockModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.Nodes[0]), I: x[e.Branch], V2: nodeV(x, e.Nodes[1]), I2: x[e.Branch+1]}
 }
 
 // LossR is 0: a block's dissipation is the net power into its ports.
-func (blockModel) LossR(*Element, float64) float64 { return 0 }
+func (*blockModel) LossR(*Element, float64) float64 { return 0 }
 
 // Dissipation is P_in − P_out = Re(V1·I1*) + Re(V2·I2*), both currents
 // into the block (equal to Σ|a|² − |b|² in power waves).
-func (blockModel) Dissipation(e *Element, st *PartState, f float64) float64 {
+func (*blockModel) Dissipation(e *Element, st *PartState, f float64) float64 {
 	return real(st.V*cmplx.Conj(st.I)) + real(st.V2*cmplx.Conj(st.I2))
 }

@@ -11,7 +11,7 @@ const Capacitor Kind = "capacitor"
 
 func init() {
 	Register(&KindSpec{
-		Kind: Capacitor, Unit: "F", Example: "300p", Model: capacitorModel{},
+		Kind: Capacitor, Unit: "F", Example: "300p", Model: &capacitorModel{},
 		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: withMeasured(capacitorAttrs)},
 		Prepare: prepareCapacitor,
 		Check:   checkSelfResonance("esl"),
@@ -56,18 +56,19 @@ func prepareCapacitor(e *Element) {
 
 type capacitorModel struct{}
 
-func (capacitorModel) Branches(*Element) int { return 0 }
+func (*capacitorModel) Branches(*Element) int { return 0 }
 
-func (m capacitorModel) Stamp(e *Element, s *System, f float64) {
+func (m *capacitorModel) Stamp(e *Element, s *System, f float64) {
 	if f == 0 {
 		return // open at DC
 	}
 	y := recip(m.impedance(e, f, s.LossR(e, f)))
 	s.Keep(e, y)
+	s.Fixed(e, Ratios{IPerV: modulus(y)}) // State sets I = y·V
 	s.Admit(e.A, e.B, y)
 }
 
-func (m capacitorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (m *capacitorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	if f == 0 {
 		*st = PartState{V: v}
@@ -80,16 +81,7 @@ func (m capacitorModel) State(e *Element, s *System, x []complex128, f float64, 
 	*st = PartState{V: v, I: v * y}
 }
 
-// Ratios: State sets I = y·V with y the admittance kept by Stamp.
-func (m capacitorModel) Ratios(e *Element, s *System, f float64) Ratios {
-	y, ok := s.Kept(e, f)
-	if !ok {
-		y = recip(m.impedance(e, f, s.LossR(e, f)))
-	}
-	return Ratios{IPerV: modulus(y)}
-}
-
-func (capacitorModel) LossR(e *Element, f float64) float64 {
+func (*capacitorModel) LossR(e *Element, f float64) float64 {
 	if z, ok := e.measuredZ(f); ok {
 		return real(z)
 	}
@@ -103,13 +95,13 @@ func (capacitorModel) LossR(e *Element, f float64) float64 {
 	return 1 / (w * e.Value * e.Q(f))
 }
 
-func (m capacitorModel) Impedance(e *Element, f float64) complex128 {
+func (m *capacitorModel) Impedance(e *Element, f float64) complex128 {
 	return m.impedance(e, f, m.LossR(e, f))
 }
 
 // impedance is ESR + ESL + C in series with the loss resistance r at f
 // (the measured impedance for a measured part).
-func (capacitorModel) impedance(e *Element, f, r float64) complex128 {
+func (*capacitorModel) impedance(e *Element, f, r float64) complex128 {
 	if z, ok := e.measuredZ(f); ok {
 		return z
 	}

@@ -327,19 +327,20 @@ func (c *Circuit) stamp(s *System, f float64, load *Load) {
 // outside the recorded band (a kind whose pattern changes with frequency)
 // widens the pattern and orders again, so nothing is ever dropped.
 type Factorization struct {
-	C    *Circuit
-	F    float64
-	Load *Load
-	n    int
-	pat  *pattern // positions seen so far (nil until the first factorisation)
-	perm []int    // perm[old] = new, band storage only
-	band *BandLU
-	lu   *LU
-	mat  []complex128
-	y    []complex128 // permuted right-hand side
-	sys  System
-	loss []float64    // each element's LossR at F (System.LossR)
-	kept []complex128 // what the kinds' stamps keep at F (System.Keep)
+	C     *Circuit
+	F     float64
+	Load  *Load
+	n     int
+	pat   *pattern // positions seen so far (nil until the first factorisation)
+	perm  []int    // perm[old] = new, band storage only
+	band  *BandLU
+	lu    *LU
+	mat   []complex128
+	y     []complex128 // permuted right-hand side
+	sys   System
+	loss  []float64    // each element's LossR at F (System.LossR)
+	kept  []complex128 // what the kinds' stamps keep at F (System.Keep)
+	fixed []Ratios     // the kinds' fixed ratios at F (System.Fixed)
 }
 
 // Factor assembles and factorises the network at f with the given load
@@ -400,14 +401,16 @@ func (fz *Factorization) Refactor(f float64) error {
 	if len(fz.loss) != len(fz.C.Elements) {
 		fz.loss = make([]float64, len(fz.C.Elements))
 		fz.kept = make([]complex128, len(fz.C.Elements))
+		fz.fixed = make([]Ratios, len(fz.C.Elements))
 	}
+	clear(fz.fixed)
 	for i := range fz.C.Elements {
 		e := &fz.C.Elements[i]
 		fz.loss[i] = e.Model.LossR(e, f)
 	}
 	if fz.band != nil {
 		*s = System{N: fz.n, perm: fz.perm, band: fz.band}
-		s.loss, s.lossF, s.hasLoss, s.kept = fz.loss, f, true, fz.kept
+		s.loss, s.lossF, s.hasLoss, s.kept, s.fixed = fz.loss, f, true, fz.kept, fz.fixed
 		fz.C.stamp(s, f, fz.Load)
 		if s.outside {
 			fz.plan(f)
@@ -415,7 +418,7 @@ func (fz *Factorization) Refactor(f float64) error {
 		}
 		err = fz.band.Factor()
 	} else {
-		*s = System{N: fz.n, M: fz.mat, loss: fz.loss, lossF: f, hasLoss: true, kept: fz.kept}
+		*s = System{N: fz.n, M: fz.mat, loss: fz.loss, lossF: f, hasLoss: true, kept: fz.kept, fixed: fz.fixed}
 		fz.C.stamp(s, f, fz.Load)
 		err = fz.lu.Factor(fz.mat)
 	}

@@ -10,7 +10,7 @@ const Clearance Kind = "clearance"
 
 func init() {
 	Register(&KindSpec{
-		Kind: Clearance, Model: clearanceModel{}, Observes: true,
+		Kind: Clearance, Model: &clearanceModel{}, Observes: true,
 		Syntax: Keyword{Fields: []string{"name", "node", "node"}, Attrs: map[string]AttrSpec{
 			"gap":    gapAttr,
 			"medium": mediumAttr,
@@ -28,9 +28,9 @@ var (
 
 type clearanceModel struct{}
 
-func (clearanceModel) Branches(*Element) int            { return 0 }
-func (clearanceModel) Stamp(*Element, *System, float64) {}
-func (clearanceModel) LossR(*Element, float64) float64  { return 0 }
-func (clearanceModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (*clearanceModel) Branches(*Element) int            { return 0 }
+func (*clearanceModel) Stamp(*Element, *System, float64) {}
+func (*clearanceModel) LossR(*Element, float64) float64  { return 0 }
+func (*clearanceModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A) - nodeV(x, e.B)}
 }

@@ -12,7 +12,7 @@ const Connector Kind = "connector"
 
 func init() {
 	Register(&KindSpec{
-		Kind: Connector, Model: connectorModel{},
+		Kind: Connector, Model: &connectorModel{},
 		Syntax: Keyword{Fields: []string{"name", "node", "node"}, Attrs: map[string]AttrSpec{
 			"vpk":  {Type: TPositive, Units: []string{"V"}, Help: "rated peak voltage, centre to shell, in V"},
 			"irms": {Type: TPositive, Units: []string{"A"}, Help: "rated RMS current in A at the frequencies used"},
@@ -22,14 +22,14 @@ func init() {
 
 type connectorModel struct{}
 
-func (connectorModel) Branches(*Element) int { return 1 }
+func (*connectorModel) Branches(*Element) int { return 1 }
 
-func (connectorModel) Stamp(e *Element, s *System, f float64) {
+func (*connectorModel) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, 0)
 }
 
-func (connectorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (*connectorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A), I: x[e.Branch]}
 }
 
-func (connectorModel) LossR(*Element, float64) float64 { return 0 }
+func (*connectorModel) LossR(*Element, float64) float64 { return 0 }

@@ -27,24 +27,24 @@ func (f PartFault) String() string {
 
 type shortModel struct{}
 
-func (shortModel) Branches(*Element) int { return 1 }
-func (shortModel) Stamp(e *Element, s *System, f float64) {
+func (*shortModel) Branches(*Element) int { return 1 }
+func (*shortModel) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, FaultShortR)
 }
-func (shortModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (*shortModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	*st = PartState{V: nodeV(x, e.A) - nodeV(x, e.B), I: x[e.Branch]}
 }
-func (shortModel) LossR(*Element, float64) float64 { return 0 }
+func (*shortModel) LossR(*Element, float64) float64 { return 0 }
 
 type openModel struct{}
 
-func (openModel) Branches(*Element) int { return 0 }
-func (openModel) Stamp(e *Element, s *System, f float64) {
+func (*openModel) Branches(*Element) int { return 0 }
+func (*openModel) Stamp(e *Element, s *System, f float64) {
 	if f > 0 {
 		s.Admit(e.A, e.B, FaultOpenG)
 	}
 }
-func (openModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (*openModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	if f == 0 {
 		*st = PartState{V: v}
@@ -52,7 +52,7 @@ func (openModel) State(e *Element, s *System, x []complex128, f float64, st *Par
 	}
 	*st = PartState{V: v, I: v * FaultOpenG}
 }
-func (openModel) LossR(*Element, float64) float64 { return 0 }
+func (*openModel) LossR(*Element, float64) float64 { return 0 }
 
 // Index returns the element index of the part called name (−1 if none).
 func (c *Circuit) Index(name string) int {
@@ -71,9 +71,9 @@ func (c *Circuit) WithFault(pf PartFault) (*Circuit, error) {
 	}
 	d := c.copyElements()
 	if pf.Short {
-		d.Elements[i].Model = shortModel{}
+		d.Elements[i].Model = &shortModel{}
 	} else {
-		d.Elements[i].Model = openModel{}
+		d.Elements[i].Model = &openModel{}
 	}
 	d.mutuals = nil
 	for _, mu := range c.mutuals {

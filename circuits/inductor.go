@@ -13,7 +13,7 @@ const DefaultInductorQ = 100
 
 func init() {
 	Register(&KindSpec{
-		Kind: Inductor, Unit: "H", Example: "0.91u", Model: inductorModel{},
+		Kind: Inductor, Unit: "H", Example: "0.91u", Model: &inductorModel{},
 		Syntax:  Keyword{Fields: []string{"name", "node", "node", "value"}, Attrs: withMeasured(inductorAttrs)},
 		Prepare: prepareInductor,
 		Check:   checkSelfResonance("cp"),
@@ -75,9 +75,9 @@ func checkSelfResonance(key string) func(c *Component, errf func(pos Pos, want, 
 
 type inductorModel struct{}
 
-func (inductorModel) Branches(*Element) int { return 1 }
+func (*inductorModel) Branches(*Element) int { return 1 }
 
-func (m inductorModel) Stamp(e *Element, s *System, f float64) {
+func (m *inductorModel) Stamp(e *Element, s *System, f float64) {
 	if f == 0 {
 		// at DC the coil is its winding resistance
 		s.Branch(e.A, e.B, e.Branch, complex(math.Max(e.Rdc, MinDCR), 0))
@@ -85,7 +85,13 @@ func (m inductorModel) Stamp(e *Element, s *System, f float64) {
 	}
 	// at DC the branch equation V = 0·I makes the coil a short; its
 	// winding resistance is read by the DC layer when it exists
-	s.Branch(e.A, e.B, e.Branch, m.winding(e, s, f))
+	z := m.winding(e, s, f)
+	s.Branch(e.A, e.B, e.Branch, z)
+	// the branch equation makes V = Z·I (a self-capacitance sits across
+	// the terminals, outside the branch), and State sets λ = L(f)·I; a
+	// coupled winding's mutual terms break both, and the split drops
+	// them for it
+	s.Fixed(e, Ratios{VPerI: modulus(z), LamPerI: math.Abs(e.Inductance(f))})
 	if e.cp > 0 && f > 0 {
 		// (L + R) ∥ Cp: the self-capacitance across the terminals
 		s.Admit(e.A, e.B, complex(0, 2*math.Pi*f*e.cp))
@@ -94,7 +100,7 @@ func (m inductorModel) Stamp(e *Element, s *System, f float64) {
 
 // State: I is the winding's current (flux, heat), It the terminal current
 // when self-capacitance makes them differ.
-func (inductorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (*inductorModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	cur := x[e.Branch]
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	*st = PartState{V: v, I: cur, Lambda: complex(e.Inductance(f), 0) * cur}
@@ -103,24 +109,15 @@ func (inductorModel) State(e *Element, s *System, x []complex128, f float64, st 
 	}
 }
 
-// Ratios: the branch equation stamped makes V = Z·I with Z the winding's
-// impedance (a self-capacitance sits across the terminals, outside the
-// branch), and State sets λ = L(f)·I. A coupled winding's branch holds
-// its neighbours' mutual voltage and its λ their flux: the split leaves
-// those out.
-func (m inductorModel) Ratios(e *Element, s *System, f float64) Ratios {
-	return Ratios{VPerI: modulus(m.winding(e, s, f)), LamPerI: math.Abs(e.Inductance(f))}
-}
-
 // winding is the inductive branch R + jωL (or the measured impedance).
-func (m inductorModel) winding(e *Element, s *System, f float64) complex128 {
+func (m *inductorModel) winding(e *Element, s *System, f float64) complex128 {
 	if z, ok := e.measuredZ(f); ok && f > 0 {
 		return z
 	}
 	return complex(s.LossR(e, f), 2*math.Pi*f*e.Value)
 }
 
-func (m inductorModel) LossR(e *Element, f float64) float64 {
+func (m *inductorModel) LossR(e *Element, f float64) float64 {
 	if f == 0 {
 		return math.Max(e.Rdc, MinDCR)
 	}
@@ -158,7 +155,7 @@ var inductorAttrs = map[string]AttrSpec{
 }
 
 // Impedance at the terminals: (R + jωL) ∥ 1/(jωCp).
-func (m inductorModel) Impedance(e *Element, f float64) complex128 {
+func (m *inductorModel) Impedance(e *Element, f float64) complex128 {
 	z := m.winding(e, nil, f)
 	if e.cp > 0 && f > 0 {
 		return 1 / (1/z + complex(0, 2*math.Pi*f*e.cp))

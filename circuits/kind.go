@@ -38,22 +38,16 @@ type Dissipator interface {
 	Dissipation(e *Element, st *PartState, f float64) float64
 }
 
-// Proportional is implemented by kinds whose state at a frequency is one
-// phasor times fixed factors: a capacitor's State sets I = Y·V; a lone
-// inductor's branch equation makes V = Z·I and its State sets λ = L·I. A
-// caller then takes one magnitude and scales it (|I| = |Y|·|V|), and the
-// worst load of one is the worst load of the other: the harmonic
-// worst-case sums and the SWR circle's worst loads need one square root
-// and one evaluation where they took two or three.
-type Proportional interface {
-	// Ratios gives the state's fixed ratios at f > 0 with s's loss
-	// table (0 where the state holds none).
-	Ratios(e *Element, s *System, f float64) Ratios
-}
-
 // Ratios are the fixed ratios of a part's state at one frequency, 0 where
 // the state holds none: |I|/|V| (I = Y·V), |V|/|I| (V = Z·I) and |λ|/|I|
-// (λ = L·I).
+// (λ = L·I). A kind whose state is one phasor times fixed factors (a
+// capacitor's State sets I = Y·V; a lone inductor's branch equation makes
+// V = Z·I and its State sets λ = L·I) records them from its Stamp, where
+// its admittance or impedance is at hand (System.Fixed). A caller then
+// takes one magnitude and scales it (|I| = |Y|·|V|), and the worst load of
+// one is the worst load of the other: the harmonic worst-case sums and the
+// SWR circle's worst loads need one square root and one evaluation where
+// they took two or three.
 type Ratios struct {
 	IPerV, VPerI, LamPerI float64
 }
@@ -140,12 +134,22 @@ type System struct {
 	// State at the same frequency (a capacitor's admittance: computed
 	// once, not again for each solution read)
 	kept []complex128
+	// fixed is each element's fixed ratios at this frequency, as its
+	// Stamp records them (Fixed; zero for a kind that records none)
+	fixed []Ratios
 }
 
 // Keep stores v for element e at this system's frequency (see Kept).
 func (s *System) Keep(e *Element, v complex128) {
 	if s.kept != nil && e.Index < len(s.kept) {
 		s.kept[e.Index] = v
+	}
+}
+
+// Fixed records e's fixed ratios at this system's frequency (see Ratios).
+func (s *System) Fixed(e *Element, r Ratios) {
+	if s.fixed != nil && e.Index < len(s.fixed) {
+		s.fixed[e.Index] = r
 	}
 }
 

@@ -39,7 +39,7 @@ var nepersPerDB = 1 / (20 * math.Log10(math.E))
 
 func init() {
 	Register(&KindSpec{
-		Kind: Line, Model: lineModel{},
+		Kind: Line, Model: &lineModel{},
 		Syntax: Keyword{Fields: []string{"name", "node", "node"}, Attrs: lineAttrs,
 			Required: []string{"z0", "len", "vf"}},
 		Layouts: [][]string{{"name", "node", "node", "node", "node"}},
@@ -139,7 +139,7 @@ func (l *LineSpec) Waves(v1, i1 complex128) (fv, bv, fi, bi complex128) {
 
 type lineModel struct{}
 
-func (lineModel) Branches(e *Element) int {
+func (*lineModel) Branches(e *Element) int {
 	if e.line != nil && e.line.Balanced {
 		return 3
 	}
@@ -155,7 +155,7 @@ func lineEnds(e *Element) (a1, b1, a2, b2 int) {
 	return e.Nodes[0], -1, e.Nodes[1], -1
 }
 
-func (lineModel) Stamp(e *Element, s *System, f float64) {
+func (*lineModel) Stamp(e *Element, s *System, f float64) {
 	l := e.line
 	a1, b1, a2, b2 := lineEnds(e)
 	k1, k2 := e.Branch, e.Branch+1
@@ -194,17 +194,17 @@ func (lineModel) Stamp(e *Element, s *System, f float64) {
 
 // State: V, I are the differential voltage at end 1 and the current into
 // it; V2, I2 the same at end 2.
-func (lineModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (*lineModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	a1, b1, a2, b2 := lineEnds(e)
 	*st = PartState{V: nodeV(x, a1) - nodeV(x, b1), I: x[e.Branch],
 		V2: nodeV(x, a2) - nodeV(x, b2), I2: x[e.Branch+1]}
 }
 
 // LossR is zero: a line's loss is not that of one current (see Dissipation).
-func (lineModel) LossR(e *Element, f float64) float64 { return 0 }
+func (*lineModel) LossR(e *Element, f float64) float64 { return 0 }
 
 // Dissipation is the power into both ends, P_in − P_out.
-func (lineModel) Dissipation(e *Element, st *PartState, f float64) float64 {
+func (*lineModel) Dissipation(e *Element, st *PartState, f float64) float64 {
 	return real(st.V*conj(st.I)) + real(st.V2*conj(st.I2))
 }
 

@@ -29,8 +29,8 @@ type Split struct {
 	// with PartState.Vloss linear in the state like V.
 	Coupled []bool
 	Node    [2][]complex128
-	// Ratio is each element's fixed ratios at F where its kind has them
-	// (Proportional), else zero: a caller scales one magnitude instead of
+	// Ratio is each element's fixed ratios at F where its kind records
+	// them (Ratios), else zero: a caller scales one magnitude instead of
 	// taking another root.
 	Ratio []Ratios
 	Vin   [2]complex128
@@ -39,19 +39,16 @@ type Split struct {
 	// centre impedance Zcm (zero without cm=).
 	Cm  [2]complex128
 	Zcm complex128
-
-	prop []Proportional // each element's kind where it has fixed ratios
 }
 
 // NewSplit allocates a split for c.
 func NewSplit(c *Circuit) *Split {
 	n, nn := len(c.Elements), len(c.Nodes)
 	s := &Split{R: make([]float64, n), Ports: make([]bool, n), Coupled: make([]bool, n),
-		Ratio: make([]Ratios, n), prop: make([]Proportional, n)}
+		Ratio: make([]Ratios, n)}
 	for i := range c.Elements {
 		_, s.Ports[i] = c.Elements[i].Model.(Dissipator)
 		s.Coupled[i] = c.Coupled(i)
-		s.prop[i], _ = c.Elements[i].Model.(Proportional)
 	}
 	for k := 0; k < 2; k++ {
 		s.P[k] = make([]PartState, n)
@@ -94,6 +91,7 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 	w.read(s, f, 0, w.x)
 	w.read(s, f, 1, w.x1)
 	copy(s.R, w.fz.loss) // each element's LossR at f, asked once in Refactor
+	w.ratios(s, f)
 	return nil
 }
 
@@ -138,26 +136,22 @@ func (w *SplitWork) read(s *Split, f float64, k int, x []complex128) {
 	s.Cm[k] = c.CommonModeI(x)
 	if k == 0 {
 		s.Voc = c.VOut(x)
-		w.ratios(s, f)
 	} else {
 		s.Zth = c.VOut(x)
 	}
 }
 
 // ratios sets the split's fixed ratios at f (the same for both
-// excitations). A coupled winding's branch holds its neighbours' mutual
-// voltage and its flux linkage their flux, so it has none; a ratio that
-// is not a finite positive number is left out as well, and the caller
-// takes the magnitude itself.
+// excitations) from those the kinds' stamps recorded (System.Fixed). A
+// coupled winding's branch holds its neighbours' mutual voltage and its
+// flux linkage their flux, so it has none; a ratio that is not a finite
+// positive number is left out as well, and the caller takes the
+// magnitude itself.
 func (w *SplitWork) ratios(s *Split, f float64) {
-	c := w.fz.C
-	for i := range c.Elements {
-		s.Ratio[i] = Ratios{}
-		p := s.prop[i]
-		if p == nil || f <= 0 || s.Coupled[i] {
-			continue
+	for i, r := range w.fz.fixed {
+		if f <= 0 || s.Coupled[i] {
+			r = Ratios{}
 		}
-		r := p.Ratios(&c.Elements[i], &w.fz.sys, f)
 		s.Ratio[i] = Ratios{IPerV: finitePositive(r.IPerV), VPerI: finitePositive(r.VPerI), LamPerI: finitePositive(r.LamPerI)}
 	}
 }

@@ -10,7 +10,7 @@ const Switch Kind = "switch"
 
 func init() {
 	Register(&KindSpec{
-		Kind: Switch, Model: switchModel{},
+		Kind: Switch, Model: &switchModel{},
 		Syntax:  Keyword{Fields: []string{"name", "node", "node"}, Attrs: switchAttrs, Required: []string{"state"}},
 		Prepare: prepareSwitch,
 		Check:   checkSwitch,
@@ -42,14 +42,14 @@ func (e *Element) Open() bool { return e.Kind == Switch && e.sw.open }
 
 type switchModel struct{}
 
-func (switchModel) Branches(e *Element) int {
+func (*switchModel) Branches(e *Element) int {
 	if e.sw.open {
 		return 0
 	}
 	return 1
 }
 
-func (switchModel) Stamp(e *Element, s *System, f float64) {
+func (*switchModel) Stamp(e *Element, s *System, f float64) {
 	if e.sw.open {
 		if f > 0 && e.sw.coff > 0 {
 			s.Admit(e.A, e.B, complex(0, 2*math.Pi*f*e.sw.coff))
@@ -59,7 +59,7 @@ func (switchModel) Stamp(e *Element, s *System, f float64) {
 	s.Branch(e.A, e.B, e.Branch, complex(math.Max(e.sw.ron, MinDCR), 2*math.Pi*f*e.sw.lon))
 }
 
-func (switchModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
+func (*switchModel) State(e *Element, s *System, x []complex128, f float64, st *PartState) {
 	v := nodeV(x, e.A) - nodeV(x, e.B)
 	if e.sw.open {
 		*st = PartState{V: v, I: v * complex(0, 2*math.Pi*f*e.sw.coff)}
@@ -68,7 +68,7 @@ func (switchModel) State(e *Element, s *System, x []complex128, f float64, st *P
 	*st = PartState{V: v, I: x[e.Branch]}
 }
 
-func (switchModel) LossR(e *Element, f float64) float64 {
+func (*switchModel) LossR(e *Element, f float64) float64 {
 	if e.sw.open {
 		return 0
 	}
