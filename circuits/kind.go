@@ -192,6 +192,21 @@ func (s *System) Add(r, c int, v complex128) {
 
 // Admit stamps an admittance y between nodes a and b.
 func (s *System) Admit(a, b int, y complex128) {
+	if s.dense() {
+		// the same four entries as the Adds below, straight into M
+		m, n := s.M, s.N
+		if a >= 0 {
+			m[a*n+a] += y
+		}
+		if b >= 0 {
+			m[b*n+b] += y
+		}
+		if a >= 0 && b >= 0 {
+			m[a*n+b] -= y
+			m[b*n+a] -= y
+		}
+		return
+	}
 	s.Add(a, a, y)
 	s.Add(b, b, y)
 	s.Add(a, b, -y)
@@ -201,11 +216,30 @@ func (s *System) Admit(a, b int, y complex128) {
 // Branch stamps a branch unknown k carrying current from a to b whose
 // branch equation is V(a) − V(b) − z·I = rhs (rhs only at DC).
 func (s *System) Branch(a, b, k int, z complex128) {
+	if s.dense() && k >= 0 {
+		m, n := s.M, s.N
+		if a >= 0 {
+			m[a*n+k] += 1
+			m[k*n+a] += 1
+		}
+		if b >= 0 {
+			m[b*n+k] -= 1
+			m[k*n+b] -= 1
+		}
+		m[k*n+k] -= z
+		return
+	}
 	s.Add(a, k, 1)
 	s.Add(b, k, -1)
 	s.Add(k, a, 1)
 	s.Add(k, b, -1)
 	s.Add(k, k, -z)
+}
+
+// dense reports whether entries go straight into M (no band, no pattern
+// being recorded, no visitor): Admit and Branch then skip Add's checks.
+func (s *System) dense() bool {
+	return s.visit == nil && s.band == nil && s.rec == nil && s.M != nil
 }
 
 // Source adds v to the right-hand side at row r (ignored without one).

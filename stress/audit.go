@@ -757,22 +757,27 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 	a := &w.acc[i]
 	a.kindSeen[kind] = true
 	lim := &w.lim[i]
-	for qi := 0; qi < nQ; qi++ {
+	kv, kc := &a.kind[kind], &a.kindCase[kind]
+	for qi, v := range q {
 		if !has[qi] || lim.hide[qi] {
 			continue
 		}
 		a.has[qi] = true
-		if q[qi] > a.val[qi] {
-			a.val[qi], a.valCase[qi] = q[qi], ci
+		if v > a.val[qi] {
+			a.val[qi], a.valCase[qi] = v, ci
 			if qi == qTemp {
 				a.heat, a.pavg, a.pdc = w.heat, q[qPdiss], w.dcq[qPdiss]
 			}
 		}
-		if a.kindCase[kind][qi] < 0 || q[qi] > a.kind[kind][qi] {
-			a.kind[kind][qi], a.kindCase[kind][qi] = q[qi], ci
+		if kc[qi] < 0 || v > kv[qi] {
+			kv[qi], kc[qi] = v, ci
 		}
 		if d := lim.derated[qi]; d > 0 {
-			if u := e.utilOf(qi, q[qi], d); u > a.util[qi] {
+			u := v / d // utilOf, but for temperature
+			if qi == qTemp {
+				u = e.utilOf(qi, v, d)
+			}
+			if u > a.util[qi] {
 				a.util[qi], a.utilCase[qi], a.utilDC[qi] = u, ci, w.dcq[qi]
 			}
 		}
