@@ -60,6 +60,7 @@ type Circuit struct {
 	HasCM    bool
 	cmBranch int
 	outMeas  *measuredData // measured antenna impedance
+	measured []int         // the elements with measured data (CheckFrequency)
 	nBranch  int
 	byName   map[string]int
 }
@@ -108,6 +109,9 @@ func Build(nl *Netlist) (*Circuit, error) {
 			next += nb
 		}
 		byName[comp.Name] = len(c.Elements)
+		if m != nil {
+			c.measured = append(c.measured, len(c.Elements))
+		}
 		e.Index = len(c.Elements)
 		c.Elements = append(c.Elements, e)
 	}

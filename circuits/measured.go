@@ -162,7 +162,9 @@ func (e *Element) measuredZ(f float64) (complex128, bool) {
 // f. Every factorisation asks, so no solve silently extrapolates. (The
 // antenna is not part of a factorisation: AntennaAt says what it is.)
 func (c *Circuit) CheckFrequency(f float64) error {
-	for i := range c.Elements {
+	// only the elements Build found with measured data: the check runs at
+	// every frequency solved
+	for _, i := range c.measured {
 		e := &c.Elements[i]
 		if err := e.meas.check(f, e.Name); err != nil {
 			return err
