@@ -539,7 +539,7 @@ func (p *Part) currentLimit(f float64, capacitor, text bool) Limit {
 	case f < first.F:
 		v, how = first.V, "below the rated frequency, held"
 	case f > last.F && capacitor:
-		v = last.V * math.Pow(last.F/f, 0.25)
+		v = last.V * math.Sqrt(math.Sqrt(last.F/f)) // (f0/f)^¼
 		how = "above the rated frequency, scaled (f0/f)^¼ for skin loss"
 	case f > last.F:
 		v = last.V * math.Sqrt(last.F/f)
@@ -644,6 +644,27 @@ func (p *Part) TempRise(pdiss float64) float64 {
 		return 0
 	}
 	return math.Pow(pdiss*1e3/(p.Area*1e4), TempExponent)
+}
+
+// FrequencyFree reports whether every limit the part's Limits give is the
+// same at every frequency and it has no winding whose copper loss and
+// conducting area change with frequency: a sweep may then ask its limits
+// once. Only kinds rated by given values say so (a capacitor or switch
+// whose irms= has no frequency, a resistor, a connector, a block); a
+// coil's guide and current density, a line's heating and a rating at a
+// frequency follow the carrier.
+func (p *Part) FrequencyFree() bool {
+	if p.Wire > 0 || p.WireLength > 0 {
+		return false
+	}
+	switch p.Kind {
+	case circuits.Capacitor, circuits.Switch:
+		a := p.irms
+		return a == nil || len(a.Points) == 0 || (len(a.Points) == 1 && a.Points[0].F == 0)
+	case circuits.Resistor, circuits.Connector, circuits.Block:
+		return true
+	}
+	return false
 }
 
 // CopperR is the AC resistance of the winding at f: annealed copper at

@@ -157,19 +157,21 @@ type Engine struct {
 	nPhase       int // phases sampled on the SWR circle (0: no circle)
 	// tri are three reflection coefficients on the SWR circle, 120° apart:
 	// the loads alphaCircle fits the α circle through
-	tri        [3]complex128
-	rho        float64 // |Γ| of the SWR circle
-	faults     []CaseKind
-	perCarrier int
-	rparts     []*ratings.Part
-	forceScan  bool         // tests: scan the sampled phases instead of the exact worst
-	everyHeat  bool         // tests: evaluate the thermal model at every case (see heats)
-	noRatios   bool         // tests: take every magnitude, ignoring the split's fixed ratios
-	heatT      float64      // key-down time the temperature is judged at, s (+Inf steady)
-	block      []bool       // judged as a two-port by its ports (stress/block.go)
-	esl        []bool       // capacitors with series inductance: the dielectric sees I/(ωC)
-	selfC      []bool       // inductors with self-capacitance: winding and terminal currents differ
-	centre     []complex128 // per carrier: the antenna load, the SWR circle's centre
+	tri          [3]complex128
+	rho          float64 // |Γ| of the SWR circle
+	faults       []CaseKind
+	perCarrier   int
+	rparts       []*ratings.Part
+	freeLim      []*partLimits // limits asked once, for parts whose limits ignore the carrier (nil: none)
+	forceScan    bool          // tests: scan the sampled phases instead of the exact worst
+	everyHeat    bool          // tests: evaluate the thermal model at every case (see heats)
+	noRatios     bool          // tests: take every magnitude, ignoring the split's fixed ratios
+	noFreeLimits bool          // tests: ask every part's limits at every carrier (see freeLimits)
+	heatT        float64       // key-down time the temperature is judged at, s (+Inf steady)
+	block        []bool        // judged as a two-port by its ports (stress/block.go)
+	esl          []bool        // capacitors with series inductance: the dielectric sees I/(ωC)
+	selfC        []bool        // inductors with self-capacitance: winding and terminal currents differ
+	centre       []complex128  // per carrier: the antenna load, the SWR circle's centre
 	// lims holds every carrier's limits for tolerance trials, asked once
 	// and shared (cacheLimits); a single audit asks them per carrier into
 	// its workspace instead, which costs no more and allocates nothing
@@ -254,6 +256,7 @@ func newEngine(c *circuits.Circuit, rs *ratings.Set, cond Conditions, offBand bo
 			e.rdc[i] = rp.WindingRdc()
 		}
 	}
+	e.freeLimits()
 	return e, nil
 }
 
@@ -1164,51 +1167,85 @@ func (e *Engine) limitsAt(f float64, out []partLimits, ratios []float64, buf *[]
 	for i := range ratios {
 		ratios[i] = 1
 	}
+	nl := len(e.levels)
 	for i := range e.C.Elements {
-		rp := e.rparts[i]
 		pl := &out[i]
-		// out may be a workspace's, holding the previous carrier's: every
-		// field starts afresh
-		*pl = partLimits{areaRatio: ratios[i*len(e.levels) : (i+1)*len(e.levels)]}
-		if rp == nil {
-			pl.hide[qArc] = true
+		if e.freeLim != nil && e.freeLim[i] != nil {
+			// the same at every carrier (ratings.Part.FrequencyFree)
+			*pl = *e.freeLim[i]
+			pl.areaRatio = ratios[i*nl : (i+1)*nl]
 			continue
 		}
-		for qi, q := range Quantities {
-			pl.hide[qi] = !rp.Shows(q)
-		}
-		// numbers only: the text of a limit is formatted when a verdict
-		// needs it (judge), not for every part at every carrier
-		*buf = rp.AppendLimitValues((*buf)[:0], f)
-		for _, l := range *buf {
-			if qi := qIndex(l.Quantity); qi >= 0 && l.Abs > 0 && l.Derated > 0 {
-				pl.derated[qi] = l.Derated
-				pl.absRatio[qi] = l.Abs / l.Derated
-				pl.advice[qi] = l.Advice
-				if qi == qTemp {
-					amb := e.Cond.Ambient
-					pl.absRatio[qi] = (l.Abs - amb) / math.Max(l.Derated-amb, 1e-9)
-				}
-			}
-		}
-		pl.copperR = rp.CopperR(f)
-		if rp.Wire > 0 {
-			pl.dcArea = ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper) / (math.Pi * rp.Wire * rp.Wire / 4)
-		}
-		if rp.Wire > 0 {
-			a0 := ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper)
-			if a0 > 0 {
-				pl.perArea = 1 / a0
-			}
-			for h := range e.levels {
-				ah := ratings.ConductingArea(float64(h+2)*f, rp.Wire, ratings.Rho20Copper)
-				if a0 > 0 && ah > 0 {
-					pl.areaRatio[h] = a0 / ah
-				}
+		e.partLimitsAt(i, f, pl, ratios[i*nl:(i+1)*nl], buf)
+	}
+	return out
+}
+
+// partLimitsAt asks part i's derated limits at carrier f into pl, with
+// its harmonics' conducting-area ratios in areaRatio (all 1 on entry).
+func (e *Engine) partLimitsAt(i int, f float64, pl *partLimits, areaRatio []float64, buf *[]ratings.Limit) {
+	rp := e.rparts[i]
+	// pl may be a workspace's, holding the previous carrier's: every
+	// field starts afresh
+	*pl = partLimits{areaRatio: areaRatio}
+	if rp == nil {
+		pl.hide[qArc] = true
+		return
+	}
+	for qi, q := range Quantities {
+		pl.hide[qi] = !rp.Shows(q)
+	}
+	// numbers only: the text of a limit is formatted when a verdict
+	// needs it (judge), not for every part at every carrier
+	*buf = rp.AppendLimitValues((*buf)[:0], f)
+	for _, l := range *buf {
+		if qi := qIndex(l.Quantity); qi >= 0 && l.Abs > 0 && l.Derated > 0 {
+			pl.derated[qi] = l.Derated
+			pl.absRatio[qi] = l.Abs / l.Derated
+			pl.advice[qi] = l.Advice
+			if qi == qTemp {
+				amb := e.Cond.Ambient
+				pl.absRatio[qi] = (l.Abs - amb) / math.Max(l.Derated-amb, 1e-9)
 			}
 		}
 	}
-	return out
+	pl.copperR = rp.CopperR(f)
+	if rp.Wire > 0 {
+		pl.dcArea = ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper) / (math.Pi * rp.Wire * rp.Wire / 4)
+	}
+	if rp.Wire > 0 {
+		a0 := ratings.ConductingArea(f, rp.Wire, ratings.Rho20Copper)
+		if a0 > 0 {
+			pl.perArea = 1 / a0
+		}
+		for h := range e.levels {
+			ah := ratings.ConductingArea(float64(h+2)*f, rp.Wire, ratings.Rho20Copper)
+			if a0 > 0 && ah > 0 {
+				areaRatio[h] = a0 / ah
+			}
+		}
+	}
+}
+
+// freeLimits asks once the limits of the parts whose limits are the same
+// at every carrier (ratings.Part.FrequencyFree), for limitsAt to copy.
+func (e *Engine) freeLimits() {
+	var buf []ratings.Limit
+	for i, rp := range e.rparts {
+		if rp == nil || !rp.FrequencyFree() || len(e.carriers) == 0 {
+			continue
+		}
+		if e.freeLim == nil {
+			e.freeLim = make([]*partLimits, len(e.rparts))
+		}
+		ones := make([]float64, len(e.levels))
+		for h := range ones {
+			ones[h] = 1
+		}
+		pl := new(partLimits)
+		e.partLimitsAt(i, e.carriers[0], pl, ones, &buf)
+		e.freeLim[i] = pl
+	}
 }
 
 // cacheLimits asks every carrier's limits once, in one block, for

@@ -133,3 +133,41 @@ func TestAlphaCircleClosedFormAsFit(t *testing.T) {
 		}
 	}
 }
+
+// Parts whose limits ignore the carrier (ratings.Part.FrequencyFree) are
+// asked once per engine instead of at every carrier; whole audits of the
+// station's files come out the same to the bit either way.
+func TestFreeLimitsAsAsked(t *testing.T) {
+	files := []string{"lpf-80m.net", "lpf-160m.net", "relay-bank-40m-20m.net", "pa-pi-40m.net", "tuner-40m-coax.net", "rx-bpf-40m.net"}
+	free := 0
+	for _, f := range files {
+		src, err := os.ReadFile("../testdata/station/" + f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		once := build(t, string(src), "points=9")
+		each := build(t, string(src), "points=9")
+		for _, pl := range once.eng.freeLim {
+			if pl != nil {
+				free++
+			}
+		}
+		each.eng.freeLim = nil
+		a, err := once.eng.Audit()
+		if err != nil {
+			t.Fatalf("%s: %v", f, err)
+		}
+		b, err := each.eng.Audit()
+		if err != nil {
+			t.Fatal(err)
+		}
+		for k := range a.Parts {
+			if !reflect.DeepEqual(a.Parts[k], b.Parts[k]) {
+				t.Errorf("%s: %s differs between limits asked once and at every carrier", f, a.Parts[k].Name)
+			}
+		}
+	}
+	if free == 0 {
+		t.Fatal("no part with carrier-free limits in the files")
+	}
+}
