@@ -45,3 +45,32 @@ func TestFrequencyFreeLimits(t *testing.T) {
 	}
 	t.Error("C1's irms=4@10M gave the same limit at 7 and 29 MHz")
 }
+
+// Part.Limit formats only the asked quantity's text; number and text must
+// be those Limits gives, for every part of the test filter (every kind of
+// rating, a capacitor, coils with cores and wire, a switch, a resistor)
+// and every quantity, at frequencies below, inside and above the rated
+// points.
+func TestLimitAsLimits(t *testing.T) {
+	src := goodNet + "capacitor C4 n1 gnd 47p vpk=2kV irms=3 pmax=1W gap=1mm\nswitch K1 n1 n3 state=closed irms=5 vpk=1kV\n"
+	s := mustPrepare(t, src, nil)
+	n := 0
+	for name, p := range s.Parts {
+		for _, f := range []float64{1.8e6, 10e6, 54e6} {
+			all := p.Limits(f)
+			for _, want := range all {
+				got, ok := p.Limit(want.Quantity, f)
+				if !ok || !reflect.DeepEqual(got, want) {
+					t.Errorf("%s %s at %g Hz: Limit %+v, Limits %+v", name, want.Quantity, f, got, want)
+				}
+				n++
+			}
+			if _, ok := p.Limit(Pm, f); ok && p.Kind != "line" {
+				t.Errorf("%s: a line's limit on a %s", name, p.Kind)
+			}
+		}
+	}
+	if n < 40 {
+		t.Fatalf("only %d limits compared", n)
+	}
+}

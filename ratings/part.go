@@ -327,16 +327,40 @@ func mm(v float64) string { return fmt.Sprintf("%.3g mm", v*1e3) }
 //	           flux limit (air); temp with a core of known surface, unless
 //	           its material is known and has no tmax (air)
 //	resistor:  pdiss, vpk
-func (p *Part) Limits(f float64) []Limit { return p.limits(nil, f, true) }
+func (p *Part) Limits(f float64) []Limit { return p.limits(nil, f, allText) }
 
 // AppendLimitValues appends the limits of Limits to dst with the numbers
 // only, no Basis text: the audit asks for every part at every carrier and
 // formats the text only for the case that binds (Limits).
-func (p *Part) AppendLimitValues(dst []Limit, f float64) []Limit { return p.limits(dst, f, false) }
+func (p *Part) AppendLimitValues(dst []Limit, f float64) []Limit { return p.limits(dst, f, noText) }
 
-func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
+// Limit is the part's limit of quantity q at f with its Basis text, as
+// Limits gives it; ok false when the part has no limit of q. Only q's
+// text is formatted: a verdict quotes one limit per quantity.
+func (p *Part) Limit(q Quantity, f float64) (Limit, bool) {
+	var buf [12]Limit
+	for _, l := range p.limits(buf[:0], f, q) {
+		if l.Quantity == q {
+			return l, true
+		}
+	}
+	return Limit{}, false
+}
+
+// allText and noText ask limits for the Basis text of every limit or of
+// none.
+const (
+	allText Quantity = "\x00all"
+	noText  Quantity = "\x00none"
+)
+
+func (p *Part) limits(out []Limit, f float64, textFor Quantity) []Limit {
+	// the Basis text of quantity q is formatted when textFor is q or
+	// allText
+	tx := func(q Quantity) bool { return textFor == allText || textFor == q }
 	given := func(q Quantity, a *circuits.Attr, class string) {
 		fac := p.factor(class, q)
+		text := tx(q)
 		if a == nil {
 			l := Limit{Quantity: q, Factor: fac}
 			if text {
@@ -357,13 +381,13 @@ func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 		if p.vrms != nil {
 			given(Vrms, p.vrms, p.Class)
 		}
-		out = append(out, p.currentLimit(f, true, text))
+		out = append(out, p.currentLimit(f, true, tx(Irms)))
 		if p.pmax != nil {
 			given(Pdiss, p.pmax, p.Class)
 		}
 	case circuits.Inductor:
 		if p.irms != nil || p.Wire == 0 {
-			out = append(out, p.currentLimit(f, false, text))
+			out = append(out, p.currentLimit(f, false, tx(Irms)))
 		}
 		// Three core limits, judged apart: saturation (a rating), the
 		// heating guide (advice) and temperature (a rating). A
@@ -375,17 +399,17 @@ func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 		}
 		if p.Core != nil && p.Turns > 0 && p.Core.Ae > 0 {
 			if m == nil || m.Bsat > 0 {
-				out = append(out, p.satLimit(text))
+				out = append(out, p.satLimit(tx(Bpk)))
 			}
 			if m.GuideFlux(f) > 0 {
-				out = append(out, p.guideLimit(f, text))
+				out = append(out, p.guideLimit(f, tx(Bavg)))
 			}
 		}
 		if p.Core != nil && p.Area > 0 && (m == nil || m.Tmax > 0) {
-			out = append(out, p.tempLimit(text))
+			out = append(out, p.tempLimit(tx(Temp)))
 		}
 		if p.Wire > 0 {
-			out = append(out, p.densityLimit(f, text))
+			out = append(out, p.densityLimit(f, tx(Jrms)))
 		}
 		if p.vpk != nil {
 			given(Vpk, p.vpk, p.Class) // a choke's insulation
@@ -395,7 +419,7 @@ func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 		given(Vpk, p.vpk, p.Class)
 	case circuits.Line:
 		given(Vpk, p.vpk, p.Class)
-		out = append(out, p.lineHeatLimit(f, text))
+		out = append(out, p.lineHeatLimit(f, tx(Pm)))
 	case circuits.Block:
 		// a measured filter is rated by the heat it can shed; a port
 		// voltage rating is optional (its connectors, its parts inside)
@@ -411,11 +435,11 @@ func (p *Part) limits(out []Limit, f float64, text bool) []Limit {
 		// voltage across the open contact. Both are judged in every
 		// state: a closed contact sees little voltage, an open one
 		// little current.
-		out = append(out, p.currentLimit(f, false, text))
+		out = append(out, p.currentLimit(f, false, tx(Irms)))
 		given(Vpk, p.vpk, p.Class)
 	}
 	if p.Gap != nil {
-		out = append(out, p.arcLimit(text))
+		out = append(out, p.arcLimit(tx(Arc)))
 	}
 	return out
 }

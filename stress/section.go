@@ -97,8 +97,6 @@ func (e *Engine) judge(s *Section, el circuits.Element, rp *ratings.Part, a *acc
 			Steady: e.Cond.Ambient + rp.Heating(a.pavg, math.Inf(1), e.Cond.Duty).Rise,
 			Judged: e.Cond.Ambient + a.heat.Rise}
 	}
-	var lc limitCache
-	limitFor := lc.get
 	for qi, q := range Quantities {
 		if !a.has[qi] {
 			continue
@@ -207,34 +205,10 @@ type Heat struct {
 	Judged  float64 // temperature after KeyDown, °C (the one judged)
 }
 
-// limitCache keeps one part's limits, text and all, at the last frequency
-// asked: a part's verdicts mostly bind at one carrier, and every Limits
-// call formats the text of each limit.
-type limitCache struct {
-	rp   *ratings.Part
-	f    float64
-	lims []ratings.Limit
-}
-
-func (c *limitCache) get(rp *ratings.Part, q ratings.Quantity, f float64) (ratings.Limit, bool) {
-	if c.lims == nil || c.rp != rp || c.f != f {
-		c.rp, c.f, c.lims = rp, f, rp.Limits(f)
-	}
-	for _, l := range c.lims {
-		if l.Quantity == q {
-			return l, true
-		}
-	}
-	return ratings.Limit{}, false
-}
-
+// limitFor is the part's limit of q at f with its text (only that text
+// is formatted: ratings.Part.Limit).
 func limitFor(rp *ratings.Part, q ratings.Quantity, f float64) (ratings.Limit, bool) {
-	for _, l := range rp.Limits(f) {
-		if l.Quantity == q {
-			return l, true
-		}
-	}
-	return ratings.Limit{}, false
+	return rp.Limit(q, f)
 }
 
 // safePower is the PEP at which quantity qi of a part reaches its derated
