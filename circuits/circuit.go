@@ -339,7 +339,7 @@ type Factorization struct {
 	perm  []int    // perm[old] = new, band storage only
 	band  *BandLU
 	lu    *LU
-	mat   []complex128
+	mat   []complex128 // the dense LU's own storage: assembled where it is factorised
 	y     []complex128 // permuted right-hand side
 	sys   System
 	loss  []float64    // each element's LossR at F (System.LossR)
@@ -386,7 +386,8 @@ func (fz *Factorization) plan(f float64) {
 		return
 	}
 	fz.perm, fz.band = nil, nil
-	fz.lu, fz.mat = NewLU(fz.n), make([]complex128, fz.n*fz.n)
+	fz.lu = NewLU(fz.n)
+	fz.mat = fz.lu.Storage() // assembled where it is factorised: no copy
 }
 
 // Refactor reuses the storage for a new frequency.
@@ -424,7 +425,7 @@ func (fz *Factorization) Refactor(f float64) error {
 	} else {
 		*s = System{N: fz.n, M: fz.mat, loss: fz.loss, lossF: f, hasLoss: true, kept: fz.kept, fixed: fz.fixed}
 		fz.C.stamp(s, f, fz.Load)
-		err = fz.lu.Factor(fz.mat)
+		err = fz.lu.FactorStored()
 	}
 	if err != nil {
 		return fmt.Errorf("at %s: %w", FormatSI(f, "Hz"), fz.explainSingular(f, err))

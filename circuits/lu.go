@@ -27,8 +27,17 @@ func NewLU(n int) *LU {
 
 // Factor copies m (row-major n×n) and factorises it in place.
 func (f *LU) Factor(m []complex128) error {
-	n := f.n
 	copy(f.a, m)
+	return f.FactorStored()
+}
+
+// Storage is the LU's own n×n row-major storage: a matrix assembled there
+// is factorised by FactorStored without a copy.
+func (f *LU) Storage() []complex128 { return f.a }
+
+// FactorStored factorises the matrix in Storage in place.
+func (f *LU) FactorStored() error {
+	n := f.n
 	a := f.a
 	tiny, err := pivotFloor(a)
 	if err != nil {
