@@ -164,7 +164,7 @@ type Engine struct {
 	rparts       []*ratings.Part
 	freeLim      []*partLimits // limits asked once, for parts whose limits ignore the carrier (nil: none)
 	forceScan    bool          // tests: scan the sampled phases instead of the exact worst
-	everyHeat    bool          // tests: evaluate the thermal model at every case (see heats)
+	everyHeat    bool          // tests: evaluate the thermal model at every case (see finishHeat)
 	noRatios     bool          // tests: take every magnitude, ignoring the split's fixed ratios
 	noFreeLimits bool          // tests: ask every part's limits at every carrier (see freeLimits)
 	heatT        float64       // key-down time the temperature is judged at, s (+Inf steady)
@@ -366,13 +366,70 @@ type accum struct {
 	// Bdc, Jdc), and of pavg: safe power scales only the RF share
 	utilDC [nQ]float64
 	pdc    float64
+	// a wound core's heating is judged once, after the sweep (finishHeat):
+	// its rise grows with the dissipation (TestHeatingRisesWithDissipation),
+	// so the hottest case of each kind, and of all, is the one that
+	// dissipates most. Kept here: those dissipations, their cases and the
+	// DC share of the hottest (heatCase −1: no case seen)
+	heatPd       float64
+	heatPdc      float64
+	heatCase     int
+	heatKindPd   [nKind]float64
+	heatKindCase [nKind]int
 }
 
 func (a *accum) reset() {
-	*a = accum{}
+	*a = accum{heatCase: -1}
 	for k := range a.kindCase {
 		for q := range a.kindCase[k] {
 			a.kindCase[k][q] = -1
+		}
+		a.heatKindCase[k] = -1
+	}
+}
+
+// heatCandidate keeps a case's dissipation pd (its DC share pdc) if it is
+// the largest of its kind or of all so far: the hottest case, judged by
+// finishHeat. Ties keep the earlier case, as keep does.
+func (a *accum) heatCandidate(kind CaseKind, ci int, pd, pdc float64) {
+	if a.heatCase < 0 || pd > a.heatPd {
+		a.heatPd, a.heatPdc, a.heatCase = pd, pdc, ci
+	}
+	if a.heatKindCase[kind] < 0 || pd > a.heatKindPd[kind] {
+		a.heatKindPd[kind], a.heatKindCase[kind] = pd, ci
+	}
+}
+
+// finishHeat judges each wound core's heating after the sweep, at the
+// dissipation heatCandidate kept, folding the temperatures into the
+// running worsts as keep would have at each case: the same values, cases
+// and thermal state as evaluating the thermal model at every case
+// (everyHeat; TestHeatSkipChangesNothing), for a power law per kind of
+// case instead of one per case. The temperature limit does not follow the
+// carrier (ratings: tempLimit), so the last carrier's limits judge it.
+func (e *Engine) finishHeat(w *workspace) {
+	amb := e.Cond.Ambient
+	for i := range w.acc {
+		a, lim := &w.acc[i], &w.lim[i]
+		if a.heatCase < 0 || lim.hide[qTemp] {
+			continue
+		}
+		rp := e.rparts[i]
+		a.has[qTemp] = true
+		heat := rp.Heating(a.heatPd, e.heatT, e.Cond.Duty)
+		t := amb + heat.Rise
+		// the hottest case, whatever its sign in °C (see keep)
+		a.val[qTemp], a.valCase[qTemp] = t, a.heatCase
+		a.heat, a.pavg, a.pdc = heat, a.heatPd, a.heatPdc
+		for k, ci := range a.heatKindCase {
+			if ci >= 0 {
+				a.kind[k][qTemp], a.kindCase[k][qTemp] = amb+rp.Heating(a.heatKindPd[k], e.heatT, e.Cond.Duty).Rise, ci
+			}
+		}
+		if d := lim.derated[qTemp]; d > 0 {
+			if u := e.utilOf(qTemp, t, d); u > a.util[qTemp] {
+				a.util[qTemp], a.utilCase[qTemp], a.utilDC[qTemp] = u, a.heatCase, 0
+			}
 		}
 	}
 }
@@ -562,6 +619,7 @@ func (e *Engine) run(w *workspace) (nodeWorst, error) {
 			e.txCircle(w, base+1)
 		}
 	}
+	e.finishHeat(w)
 	return nw, nil
 }
 
@@ -718,10 +776,14 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 				q[qPdiss] = floor
 			}
 		}
-		if rp.Core != nil && rp.Area > 0 && e.heats(&w.acc[i], kind, q[qPdiss]) {
-			heat = rp.Heating(q[qPdiss], e.heatT, e.Cond.Duty)
-			q[qTemp] = e.Cond.Ambient + heat.Rise
-			has[qTemp] = true
+		if rp.Core != nil && rp.Area > 0 {
+			if e.everyHeat {
+				heat = rp.Heating(q[qPdiss], e.heatT, e.Cond.Duty)
+				q[qTemp] = e.Cond.Ambient + heat.Rise
+				has[qTemp] = true
+			} else {
+				w.acc[i].heatCandidate(kind, ci, q[qPdiss], pdc)
+			}
 		}
 		// harmonic currents crowd into a thinner skin: weight each by the
 		// ratio of conducting areas, so the density heats as the sum does;
@@ -745,16 +807,6 @@ func (e *Engine) evalPart(w *workspace, i, ci int, kind CaseKind, cls int, alpha
 	e.keep(w, i, ci, kind, &q, &has)
 }
 
-// heats reports whether a case dissipating pd can raise the part's worst
-// temperature: the rise grows with the dissipation (ratings.Part.Heating;
-// TestHeatingRisesWithDissipation), so a case that dissipates no more than
-// the worst case of its kind so far heats no more, and its power law is
-// not worth evaluating. Every maximum, case and utilisation kept is the
-// same either way.
-func (e *Engine) heats(a *accum, kind CaseKind, pd float64) bool {
-	return e.everyHeat || a.kindCase[kind][qTemp] < 0 || a.kindCase[kind][qPdiss] < 0 || pd > a.kind[kind][qPdiss]
-}
-
 // keep folds one case's quantities of part i into its running worst.
 func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, has *[nQ]bool) {
 	a := &w.acc[i]
@@ -765,8 +817,12 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 		if !has[qi] || lim.hide[qi] {
 			continue
 		}
+		had := a.has[qi]
 		a.has[qi] = true
-		if v > a.val[qi] {
+		// a temperature may be below 0 °C (a cold ambient): its first
+		// case is kept whatever its value, not compared with the zero the
+		// running worst starts from
+		if v > a.val[qi] || (qi == qTemp && !had) {
 			a.val[qi], a.valCase[qi] = v, ci
 			if qi == qTemp {
 				a.heat, a.pavg, a.pdc = w.heat, q[qPdiss], w.dcq[qPdiss]
@@ -829,8 +885,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 			e.blockCircle(w, i, first, ca, ra, scale, k)
 			continue
 		}
-		// current first: its worst load usually dissipates most, so the
-		// other two rarely need the thermal model (heats). A quantity
+		// current first (its worst load usually dissipates most). A quantity
 		// that is a fixed multiple of the current (a capacitor's V =
 		// I/Y, a lone coil's V = Z·I and λ = L·I) has the current's
 		// worst load: the direction of (x0 + c·x1)·x̄1 is the same for
@@ -918,7 +973,8 @@ func (a *accum) uses(ci int) bool {
 			return true
 		}
 	}
-	return false
+	// the hottest case, judged after the sweep (finishHeat)
+	return a.heatCase == ci || a.heatKindCase[Circle] == ci
 }
 
 // alphaCircle fits the circle traced by α over the SWR circle through three

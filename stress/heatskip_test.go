@@ -10,15 +10,15 @@ import (
 	"rfstress/circuits"
 )
 
-// Skipping the thermal model for cases that dissipate no more than one
-// already judged (Engine.heats) changes nothing an audit reports: every
-// part's stresses, worst cases, utilisations, safe power and findings are
-// identical to an audit that evaluates it at every case, for the example
-// station's wound filters and tuners under steady, duty and key-down
-// heating.
+// Judging the thermal model once after the sweep, at the largest
+// dissipation of each kind of case (Engine.finishHeat), changes nothing an
+// audit reports: every part's stresses, worst cases, utilisations, safe
+// power and findings are identical to an audit that evaluates it at every
+// case, for the example station's wound filters and tuners under steady,
+// duty and key-down heating.
 func TestHeatSkipChangesNothing(t *testing.T) {
 	files := []string{"lpf-80m.net", "lpf-160m.net", "lpf-30m.net", "pa-pi-40m.net", "tuner-80m-vertical.net", "lpf-17m-15m.net"}
-	settings := [][]string{nil, {"mode=data-15s"}, {"key-down=90s"}, {"mode=tune", "swr=5"}}
+	settings := [][]string{nil, {"mode=data-15s"}, {"key-down=90s"}, {"mode=tune", "swr=5"}, {"ambient=-20", "mode=data-15s"}, {"ambient=55", "harmonics=single-ended"}}
 	for _, f := range files {
 		src, err := os.ReadFile("../testdata/station/" + f)
 		if err != nil {
@@ -169,5 +169,40 @@ func TestFreeLimitsAsAsked(t *testing.T) {
 	}
 	if free == 0 {
 		t.Fatal("no part with carrier-free limits in the files")
+	}
+}
+
+// In a cold ambient a wound core's temperature stays below 0 °C at low
+// power: the audit must report it as it is (ambient plus the rise of the
+// still-air rule at the hottest case's dissipation), not the 0 °C a
+// running maximum starts from, and carry that case's dissipation. Both
+// ways of judging the heat agree (finishHeat and every case).
+func TestColdAmbientTemperature(t *testing.T) {
+	src, err := os.ReadFile("../testdata/station/lpf-80m.net")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, every := range []bool{false, true} {
+		fx := build(t, string(src), "ambient=-40", "power=5")
+		fx.eng.everyHeat = every
+		sec, err := fx.eng.Audit()
+		if err != nil {
+			t.Fatal(err)
+		}
+		n := 0
+		for _, p := range sec.Parts {
+			st, ok := p.Stress["temp"]
+			if !ok || p.Heat == nil {
+				continue
+			}
+			n++
+			want := -40 + p.Rating.Heating(p.Heat.Pavg, math.Inf(1), fx.eng.Cond.Duty).Rise
+			if !(p.Heat.Pavg > 0) || !(st.Value < 0 && st.Value > -40) || math.Abs(st.Value-want) > 1e-9 {
+				t.Errorf("every=%v %s: %.4g °C at %.3g W, by the rule %.4g °C", every, p.Name, st.Value, p.Heat.Pavg, want)
+			}
+		}
+		if n == 0 {
+			t.Fatal("no wound core judged on temperature")
+		}
 	}
 }
