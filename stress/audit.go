@@ -557,6 +557,11 @@ func (e *Engine) solveDC(w *workspace) error {
 // run audits the workspace's circuit over every case into w.acc.
 func (e *Engine) run(w *workspace) (nodeWorst, error) {
 	c := w.c
+	if cap(w.extra) == 0 && e.nPhase > 0 {
+		// about one exact worst per part and carrier is recorded (most
+		// are overtaken later): room for that at once, not by doubling
+		w.extra = make([]ExactCase, 0, len(e.carriers)*(len(c.Elements)+1))
+	}
 	w.extra = w.extra[:0]
 	for i := range w.acc {
 		w.acc[i].reset()
