@@ -856,8 +856,9 @@ func (e *Engine) keep(w *workspace, i, ci int, kind CaseKind, q *[nQ]float64, ha
 // X0 + α·X1. Its magnitude |c + r·e^{jφ}| is largest where r·e^{jφ}·X1
 // points along X0 + c·X1: one α in closed form, whose load angle θ follows
 // by inverting the map. Each quantity of a part is a rising function of
-// |V|, |I| or |λ| (harmonic terms are fixed per case class), so three
-// evaluations per part give every worst value of the continuous circle.
+// |V|, |I| or |λ| (harmonic terms are fixed per case class), so at most
+// three evaluations per part give every worst value of the continuous
+// circle, and one where V and λ are fixed multiples of I (circuits.Ratios).
 // Delivered drive scales each case differently, and a circle that passes
 // through the pole cannot be fitted: those scan the sampled phases.
 func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) {
@@ -1178,7 +1179,7 @@ func (hws *harmClasses) worst(x0, x1 complex128, eh float64) (m [nClass]float64)
 	return m
 }
 
-// ratios gives part i's fixed ratios in split s (circuits.Proportional),
+// ratios gives part i's fixed ratios in split s (circuits.Ratios),
 // zero where a magnitude must be taken.
 func (e *Engine) ratios(s *circuits.Split, i int) circuits.Ratios {
 	if e.noRatios || i >= len(s.Ratio) {
