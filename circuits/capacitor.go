@@ -81,6 +81,22 @@ func (m *capacitorModel) State(e *Element, s *System, x []complex128, f float64,
 	*st = PartState{V: v, I: v * y}
 }
 
+// StatePair is State for two solutions.
+func (m *capacitorModel) StatePair(e *Element, s *System, x0, x1 []complex128, f float64, st0, st1 *PartState) {
+	if f == 0 {
+		m.State(e, s, x0, f, st0)
+		m.State(e, s, x1, f, st1)
+		return
+	}
+	v0, v1 := nodeV(x0, e.A)-nodeV(x0, e.B), nodeV(x1, e.A)-nodeV(x1, e.B)
+	y, ok := s.Kept(e, f)
+	if !ok {
+		y = recip(m.impedance(e, f, s.LossR(e, f)))
+	}
+	*st0 = PartState{V: v0, I: v0 * y}
+	*st1 = PartState{V: v1, I: v1 * y}
+}
+
 func (*capacitorModel) LossR(e *Element, f float64) float64 {
 	if z, ok := e.measuredZ(f); ok {
 		return real(z)

@@ -563,6 +563,13 @@ func (c *Circuit) partStates(s *System, x []complex128, f float64, out []PartSta
 			st.Ploss = r * (real(st.I)*real(st.I) + imag(st.I)*imag(st.I))
 		}
 	}
+	c.coupledStates(s, f, out, withLoss)
+}
+
+// coupledStates adds what couplings put into the states read element by
+// element: each winding's flux linkage from its neighbours' currents and
+// its loss voltage (and, withLoss, its dissipation).
+func (c *Circuit) coupledStates(s *System, f float64, out []PartState, withLoss bool) {
 	for _, mu := range c.mutuals {
 		M := complex(mu.k*math.Sqrt(c.Elements[mu.i].Value*c.Elements[mu.j].Value), 0)
 		out[mu.i].Lambda += M * out[mu.j].I

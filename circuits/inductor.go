@@ -109,6 +109,20 @@ func (*inductorModel) State(e *Element, s *System, x []complex128, f float64, st
 	}
 }
 
+// StatePair is State for two solutions.
+func (*inductorModel) StatePair(e *Element, s *System, x0, x1 []complex128, f float64, st0, st1 *PartState) {
+	l := complex(e.Inductance(f), 0)
+	c0, c1 := x0[e.Branch], x1[e.Branch]
+	v0, v1 := nodeV(x0, e.A)-nodeV(x0, e.B), nodeV(x1, e.A)-nodeV(x1, e.B)
+	*st0 = PartState{V: v0, I: c0, Lambda: l * c0}
+	*st1 = PartState{V: v1, I: c1, Lambda: l * c1}
+	if e.cp > 0 {
+		jwc := complex(0, 2*math.Pi*f*e.cp)
+		st0.It = c0 + jwc*v0
+		st1.It = c1 + jwc*v1
+	}
+}
+
 // winding is the inductive branch R + jωL (or the measured impedance).
 func (m *inductorModel) winding(e *Element, s *System, f float64) complex128 {
 	if z, ok := e.measuredZ(f); ok && f > 0 {

@@ -38,6 +38,15 @@ type Dissipator interface {
 	Dissipation(e *Element, st *PartState, f float64) float64
 }
 
+// PairReader is implemented by kinds that read both of a split's
+// solutions in one call: the split reads every element twice at every
+// frequency, and one call shares the lookups (nodes, the kept admittance)
+// that two would repeat. StatePair must give what State gives for each
+// (TestReadPairAsRead).
+type PairReader interface {
+	StatePair(e *Element, s *System, x0, x1 []complex128, f float64, st0, st1 *PartState)
+}
+
 // Ratios are the fixed ratios of a part's state at one frequency, 0 where
 // the state holds none: |I|/|V| (I = Y·V), |V|/|I| (V = Z·I) and |λ|/|I|
 // (λ = L·I). A kind whose state is one phasor times fixed factors (a

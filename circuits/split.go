@@ -88,8 +88,7 @@ func (w *SplitWork) Fill(s *Split, f float64) error {
 	w.excite(w.x, 0)
 	w.excite(w.x1, 1)
 	w.fz.Solve2(w.x, w.x1)
-	w.read(s, f, 0, w.x)
-	w.read(s, f, 1, w.x1)
+	w.readPair(s, f)
 	copy(s.R, w.fz.loss) // each element's LossR at f, asked once in Refactor
 	w.ratios(s, f)
 	return nil
@@ -125,6 +124,33 @@ func (w *SplitWork) excite(x []complex128, k int) {
 			x[c.OutB] = -1
 		}
 	}
+}
+
+// readPair stores the states of both solutions (w.x, w.x1) in s, as
+// read(0) and read(1) would, reading each element once where its kind can
+// (PairReader).
+func (w *SplitWork) readPair(s *Split, f float64) {
+	c := w.fz.C
+	sys := &w.fz.sys
+	x0, x1 := w.x, w.x1
+	P0, P1 := s.P[0], s.P[1]
+	for i := range c.Elements {
+		e := &c.Elements[i]
+		if pr, ok := e.Model.(PairReader); ok {
+			pr.StatePair(e, sys, x0, x1, f, &P0[i], &P1[i])
+		} else {
+			e.Model.State(e, sys, x0, f, &P0[i])
+			e.Model.State(e, sys, x1, f, &P1[i])
+		}
+	}
+	c.coupledStates(sys, f, P0, false)
+	c.coupledStates(sys, f, P1, false)
+	for k, x := range [2][]complex128{x0, x1} {
+		copy(s.Node[k], x[:len(c.Nodes)])
+		s.Vin[k] = x[c.In]
+		s.Cm[k] = c.CommonModeI(x)
+	}
+	s.Voc, s.Zth = c.VOut(x0), c.VOut(x1)
 }
 
 // read stores the states of solution x of excitation k in s.
