@@ -1099,7 +1099,6 @@ func (e *Engine) harmonicSums(w *workspace) {
 			}
 			// one part's phasors, every class: read once
 			p0, p1 := &P0[i], &P1[i]
-			flux := p0.Lambda != 0 || p1.Lambda != 0 // no flux in a capacitor
 			ar, r := w.lim[i].areaRatio[h], s.R[i]
 			var vc, linv float64
 			if e.esl[i] {
@@ -1129,11 +1128,11 @@ func (e *Engine) harmonicSums(w *workspace) {
 				mi = hws.worst(p0.I, p1.I, eh)
 			}
 			switch {
-			case flux && rt.LamPerI > 0:
+			case rt.LamPerI > 0:
 				for cls := range mi {
 					ml[cls] = mi[cls] * rt.LamPerI
 				}
-			case flux:
+			case p0.Lambda != 0 || p1.Lambda != 0: // no flux in a capacitor
 				ml = hws.worst(p0.Lambda, p1.Lambda, eh)
 			}
 			hs := &w.hs[i]
