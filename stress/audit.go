@@ -157,21 +157,20 @@ type Engine struct {
 	nPhase       int // phases sampled on the SWR circle (0: no circle)
 	// tri are three reflection coefficients on the SWR circle, 120° apart:
 	// the loads alphaCircle fits the α circle through
-	tri          [3]complex128
-	rho          float64 // |Γ| of the SWR circle
-	faults       []CaseKind
-	perCarrier   int
-	rparts       []*ratings.Part
-	freeLim      []*partLimits // limits asked once, for parts whose limits ignore the carrier (nil: none)
-	forceScan    bool          // tests: scan the sampled phases instead of the exact worst
-	everyHeat    bool          // tests: evaluate the thermal model at every case (see finishHeat)
-	noRatios     bool          // tests: take every magnitude, ignoring the split's fixed ratios
-	noFreeLimits bool          // tests: ask every part's limits at every carrier (see freeLimits)
-	heatT        float64       // key-down time the temperature is judged at, s (+Inf steady)
-	block        []bool        // judged as a two-port by its ports (stress/block.go)
-	esl          []bool        // capacitors with series inductance: the dielectric sees I/(ωC)
-	selfC        []bool        // inductors with self-capacitance: winding and terminal currents differ
-	centre       []complex128  // per carrier: the antenna load, the SWR circle's centre
+	tri        [3]complex128
+	rho        float64 // |Γ| of the SWR circle
+	faults     []CaseKind
+	perCarrier int
+	rparts     []*ratings.Part
+	freeLim    []*partLimits // limits asked once, for parts whose limits ignore the carrier (nil: none)
+	forceScan  bool          // tests: scan the sampled phases instead of the exact worst
+	everyHeat  bool          // tests: evaluate the thermal model at every case (see finishHeat)
+	noRatios   bool          // tests: take every magnitude, ignoring the split's fixed ratios
+	heatT      float64       // key-down time the temperature is judged at, s (+Inf steady)
+	block      []bool        // judged as a two-port by its ports (stress/block.go)
+	esl        []bool        // capacitors with series inductance: the dielectric sees I/(ωC)
+	selfC      []bool        // inductors with self-capacitance: winding and terminal currents differ
+	centre     []complex128  // per carrier: the antenna load, the SWR circle's centre
 	// lims holds every carrier's limits for tolerance trials, asked once
 	// and shared (cacheLimits); a single audit asks them per carrier into
 	// its workspace instead, which costs no more and allocates nothing
