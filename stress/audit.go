@@ -911,6 +911,7 @@ func (e *Engine) circleCases(w *workspace, first int, f float64, nw *nodeWorst) 
 				e.record(w, first, f, a)
 			}
 		}
+
 	}
 	for ni := range s.Node[0] {
 		if s.Node[1][ni] == 0 {
