@@ -3,6 +3,7 @@ package stress
 import (
 	"fmt"
 	"math"
+	"os"
 	"strings"
 	"testing"
 
@@ -67,6 +68,30 @@ func build(t testing.TB, src string, settings ...string) *fixture {
 	if err != nil {
 		t.Fatalf("parse: %v\n%s", err, src)
 	}
+	return buildNetlist(t, nl, settings...)
+}
+
+// buildFile is build for a netlist file, with its measured data read from
+// beside it.
+func buildFile(t testing.TB, path string, settings ...string) *fixture {
+	t.Helper()
+	src, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	nl, err := circuits.Parse(path, src)
+	if err != nil {
+		t.Fatalf("parse: %v", err)
+	}
+	if err := circuits.LoadMeasured(nl, os.ReadFile); err != nil { // paths beside the netlist
+		t.Fatalf("measured data: %v", err)
+	}
+	return buildNetlist(t, nl, settings...)
+}
+
+// buildNetlist prepares an engine for a parsed netlist (see build).
+func buildNetlist(t testing.TB, nl *circuits.Netlist, settings ...string) *fixture {
+	t.Helper()
 	c, err := circuits.Build(nl)
 	if err != nil {
 		t.Fatal(err)
