@@ -399,8 +399,31 @@ func scalarRateMemory() float64 {
 // compares CPU times, which a busy machine disturbs far less than wall
 // time.
 func BenchmarkAuditHeavyFlopBound(b *testing.B) {
-	fx := build(b, benchSource(b), benchHeavy...)
-	fz, err := fx.c.Factor(3.6e6, nil)
+	heavyFlopBound(b, build(b, benchSource(b), benchHeavy...))
+}
+
+// BenchmarkAuditHeavyFlopBoundEach is the same heavy audit (201 carriers
+// over each file's own band, 3600 phases, push-pull harmonics to the 9th,
+// open and short) of other networks of the example station, each against
+// its own flop bound: larger networks carry more LU work per part, a
+// tuner's T network less.
+func BenchmarkAuditHeavyFlopBoundEach(b *testing.B) {
+	for _, f := range []string{"lpf-160m.net", "lpf-30m.net", "lpf-40m.net", "rx-bpf-40m.net", "tuner-80m-vertical.net", "tuner-40m-balanced.net", "pa-pi-40m.net"} {
+		b.Run(strings.TrimSuffix(f, ".net"), func(b *testing.B) {
+			_, here, _, _ := runtime.Caller(0)
+			heavyFlopBound(b, buildFile(b, filepath.Join(filepath.Dir(here), "..", "testdata", "station", f),
+				"points=201", "phases=3600", "swr=3", "faults=open,short", "harmonics=push-pull", "harmonic-max=9"))
+		})
+	}
+}
+
+// heavyFlopBound measures an audit against its flop bound (see
+// BenchmarkAuditHeavyFlopBound).
+func heavyFlopBound(b *testing.B, fx *fixture) {
+	if len(fx.eng.carriers) == 0 {
+		b.Fatal("no carriers")
+	}
+	fz, err := fx.c.Factor(fx.eng.carriers[0], nil)
 	if err != nil {
 		b.Fatal(err)
 	}
