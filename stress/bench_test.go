@@ -112,13 +112,19 @@ func BenchmarkAuditHeavy(b *testing.B) {
 	fx := build(b, benchSource(b), benchHeavy...)
 	b.ReportAllocs()
 	for b.Loop() {
-		e, err := NewEngine(fx.c, fx.rs, fx.cond)
-		if err != nil {
-			b.Fatal(err)
-		}
-		if _, err := e.Audit(); err != nil {
-			b.Fatal(err)
-		}
+		auditAsCaller(b, fx)
+	}
+}
+
+// auditAsCaller runs the whole audit as a caller has it: limits asked of
+// the ratings layer (NewEngine), every case, the verdicts.
+func auditAsCaller(b *testing.B, fx *fixture) {
+	e, err := NewEngine(fx.c, fx.rs, fx.cond)
+	if err != nil {
+		b.Fatal(err)
+	}
+	if _, err := e.Audit(); err != nil {
+		b.Fatal(err)
 	}
 }
 
@@ -443,15 +449,7 @@ func heavyFlopBound(b *testing.B, fx *fixture) {
 	b.ReportAllocs()
 	cpu0 := cpuTime()
 	for b.Loop() {
-		// the whole audit as a caller has it: limits asked of the
-		// ratings layer, every case, the verdicts
-		e, err := NewEngine(fx.c, fx.rs, fx.cond)
-		if err != nil {
-			b.Fatal(err)
-		}
-		if _, err := e.Audit(); err != nil {
-			b.Fatal(err)
-		}
+		auditAsCaller(b, fx)
 	}
 	per := (cpuTime() - cpu0).Seconds() / float64(b.N)
 	b.ReportMetric(bound*1e3, "bound-ms")
